@@ -1,0 +1,18 @@
+import pg from 'pg'
+import { drizzle } from 'drizzle-orm/node-postgres'
+import { migrate } from 'drizzle-orm/node-postgres/migrator'
+import { fileURLToPath } from 'node:url'
+
+export const MIGRATIONS_DIR = fileURLToPath(new URL('../../drizzle', import.meta.url))
+
+/** Apply every migration in drizzle/ that the database has not seen; a second run is a no-op. */
+export async function runMigrations(url: string): Promise<void> {
+  const pool = new pg.Pool({ connectionString: url, max: 1 })
+  try {
+    // Quiet the NOTICEs PostgreSQL prints for "IF NOT EXISTS" on the migrations table.
+    pool.on('connect', (c) => void c.query("SET client_min_messages TO 'warning'"))
+    await migrate(drizzle(pool), { migrationsFolder: MIGRATIONS_DIR })
+  } finally {
+    await pool.end()
+  }
+}

@@ -1,0 +1,56 @@
+import express, { type Express } from 'express'
+import helmet from 'helmet'
+import { existsSync } from 'node:fs'
+import { resolve } from 'node:path'
+import type { AppContext } from './context'
+import { apiRouter } from './routes/index'
+import { apiNotFound, errorHandler } from './middleware/error-handler'
+import { requestLog } from './middleware/request-log'
+import { sessionMiddleware } from './middleware/session'
+import { sameOrigin } from './middleware/same-origin'
+import { devRouter } from './routes/dev'
+
+export interface CreateAppOptions {
+  /** Folder of the built client to serve (with the SPA fallback); omitted in API-only tests. */
+  clientDir?: string
+}
+
+/** The Express app; server/index.ts and the tests both build it from here. */
+export function createApp(ctx: AppContext, options: CreateAppOptions = {}): Express {
+  const app = express()
+  app.disable('x-powered-by')
+  app.set('trust proxy', 'loopback')
+  app.use(
+    helmet({
+      contentSecurityPolicy: {
+        useDefaults: true,
+        directives: {
+          'img-src': ["'self'", 'data:', 'blob:'],
+          'style-src': ["'self'", "'unsafe-inline'"],
+          'worker-src': ["'self'", 'blob:'],
+          'upgrade-insecure-requests': null,
+        },
+      },
+      strictTransportSecurity: ctx.env.APP_URL?.startsWith('https:') ?? false,
+    }),
+  )
+  app.use(requestLog(ctx.log))
+  app.use('/api', express.json({ limit: '2mb' }))
+  app.use('/api', sessionMiddleware(ctx.lucia))
+  app.use('/api', sameOrigin(ctx.env.APP_URL))
+  app.use('/api', apiRouter(ctx))
+  app.use('/api', apiNotFound)
+  if (ctx.env.NODE_ENV !== 'production') app.use('/dev', devRouter(ctx))
+
+  const clientDir = options.clientDir ? resolve(options.clientDir) : null
+  if (clientDir && existsSync(clientDir)) {
+    app.use(express.static(clientDir, { index: false, maxAge: '1h' }))
+    // The client routes in the browser: every other GET gets index.html.
+    app.get('/*splat', (_req, res) => {
+      res.setHeader('Cache-Control', 'no-cache')
+      res.sendFile(resolve(clientDir, 'index.html'))
+    })
+  }
+  app.use(errorHandler)
+  return app
+}

@@ -1,0 +1,39 @@
+import { pgTable, text, timestamp, integer, pgEnum, index, uniqueIndex } from 'drizzle-orm/pg-core'
+import { sql } from 'drizzle-orm'
+
+export const accountRole = pgEnum('account_role', ['member', 'advisor', 'admin'])
+export const unitSystem = pgEnum('unit_system', ['metric', 'imperial'])
+export const temperatureUnit = pgEnum('temperature_unit', ['C', 'F'])
+
+/** People. Lucia's user table: `id text` primary key. E-mail is stored lower-cased. */
+export const users = pgTable(
+  'users',
+  {
+    id: text('id').primaryKey(),
+    email: text('email').notNull(),
+    displayName: text('display_name').notNull(),
+    passwordHash: text('password_hash').notNull(),
+    role: accountRole('role').notNull().default('member'),
+    emailVerifiedAt: timestamp('email_verified_at', { withTimezone: true, mode: 'date' }),
+    unitSystem: unitSystem('unit_system').notNull().default('metric'),
+    temperatureUnit: temperatureUnit('temperature_unit').notNull().default('C'),
+    currency: text('currency').notNull().default('EUR'),
+    version: integer('version').notNull().default(1),
+    createdAt: timestamp('created_at', { withTimezone: true, mode: 'date' }).notNull().defaultNow(),
+    updatedAt: timestamp('updated_at', { withTimezone: true, mode: 'date' }).notNull().defaultNow(),
+  },
+  (t) => [uniqueIndex('users_email_key').on(sql`lower(${t.email})`)],
+)
+
+/** Lucia's session table. */
+export const sessions = pgTable(
+  'sessions',
+  {
+    id: text('id').primaryKey(),
+    userId: text('user_id')
+      .notNull()
+      .references(() => users.id, { onDelete: 'cascade' }),
+    expiresAt: timestamp('expires_at', { withTimezone: true, mode: 'date' }).notNull(),
+  },
+  (t) => [index('sessions_user_idx').on(t.userId)],
+)

@@ -1,0 +1,12 @@
+import { Router } from 'express'
+import type { AppContext } from '../context'
+
+/**
+ * Development-only helpers (not mounted when NODE_ENV=production), e.g. the fake mailbox.
+ * One line per helper.
+ */
+export function devRouter(ctx: AppContext): Router {
+  void ctx
+  const r = Router()
+  return r
+}

@@ -1,0 +1,6 @@
+import type { App } from 'vue'
+import { createPinia } from 'pinia'
+
+export function installPinia(app: App): void {
+  app.use(createPinia())
+}

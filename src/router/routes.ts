@@ -1,0 +1,45 @@
+import type { RouteRecordRaw } from 'vue-router'
+
+/**
+ * The lazy route table; every page is its own chunk. `meta.title` sets the document title.
+ * Add one entry per page; the catch-all stays last.
+ */
+export const routes: RouteRecordRaw[] = [
+  {
+    path: '/',
+    component: () => import('../layouts/MainLayout.vue'),
+    children: [
+      { path: '', name: 'home', component: () => import('../pages/HomePage.vue'), meta: { title: 'Home' } },
+      {
+        path: 'vehicles',
+        name: 'vehicles',
+        component: () => import('../pages/VehiclesPage.vue'),
+        meta: { title: 'Vehicles' },
+      },
+      {
+        path: 'scenarios',
+        name: 'scenarios',
+        component: () => import('../pages/ScenariosPage.vue'),
+        meta: { title: 'Scenarios' },
+      },
+      {
+        path: 'reviews',
+        name: 'reviews',
+        component: () => import('../pages/ReviewsPage.vue'),
+        meta: { title: 'Reviews' },
+      },
+      {
+        path: 'account',
+        name: 'account',
+        component: () => import('../pages/AccountPage.vue'),
+        meta: { title: 'Account' },
+      },
+      {
+        path: ':pathMatch(.*)*',
+        name: 'not-found',
+        component: () => import('../pages/NotFoundPage.vue'),
+        meta: { title: 'Not found' },
+      },
+    ],
+  },
+]
