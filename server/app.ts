@@ -46,7 +46,7 @@ export function createApp(ctx: AppContext, options: CreateAppOptions = {}): Expr
   if (clientDir && existsSync(clientDir)) {
     app.use(express.static(clientDir, { index: false, maxAge: '1h' }))
     // The client routes in the browser: every other GET gets index.html.
-    app.get('/*splat', (_req, res) => {
+    app.get('/{*splat}', (_req, res) => {
       res.setHeader('Cache-Control', 'no-cache')
       res.sendFile(resolve(clientDir, 'index.html'))
     })

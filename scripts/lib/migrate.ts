@@ -7,10 +7,9 @@ export const MIGRATIONS_DIR = fileURLToPath(new URL('../../drizzle', import.meta
 
 /** Apply every migration in drizzle/ that the database has not seen; a second run is a no-op. */
 export async function runMigrations(url: string): Promise<void> {
-  const pool = new pg.Pool({ connectionString: url, max: 1 })
+  // Quiet the NOTICEs PostgreSQL prints for "IF NOT EXISTS" on the migrations table.
+  const pool = new pg.Pool({ connectionString: url, max: 1, options: '-c client_min_messages=warning' })
   try {
-    // Quiet the NOTICEs PostgreSQL prints for "IF NOT EXISTS" on the migrations table.
-    pool.on('connect', (c) => void c.query("SET client_min_messages TO 'warning'"))
     await migrate(drizzle(pool), { migrationsFolder: MIGRATIONS_DIR })
   } finally {
     await pool.end()

@@ -1,0 +1,50 @@
+import { chromium, type Browser, type BrowserContext, type Page } from 'playwright-core'
+import { existsSync, mkdirSync } from 'node:fs'
+import { join } from 'node:path'
+
+/** Debian's Chromium (the real binary behind the wrapper script, STACK.md gotcha 10). */
+const EXECUTABLE = existsSync('/usr/lib/chromium/chromium')
+  ? '/usr/lib/chromium/chromium'
+  : '/usr/bin/chromium'
+
+export const ARGS = [
+  '--headless',
+  '--no-sandbox',
+  '--disable-gpu',
+  '--disable-quic',
+  '--no-first-run',
+  '--disable-background-networking',
+  '--disable-component-update',
+  '--disable-sync',
+  '--disable-dev-shm-usage',
+]
+
+export function launchBrowser(): Promise<Browser> {
+  return chromium.launch({ executablePath: EXECUTABLE, headless: true, args: ARGS })
+}
+
+/** Phone and desktop viewports we check pages at. */
+export const VIEWPORTS = {
+  phone: { width: 360, height: 740 },
+  desktop: { width: 1280, height: 860 },
+} as const
+
+export async function newPage(
+  browser: Browser,
+  viewport: { width: number; height: number } = VIEWPORTS.desktop,
+): Promise<{ context: BrowserContext; page: Page; requests: string[] }> {
+  const context = await browser.newContext({ viewport, reducedMotion: 'reduce' })
+  const page = await context.newPage()
+  const requests: string[] = []
+  page.on('request', (r) => requests.push(r.url()))
+  return { context, page, requests }
+}
+
+/** Screenshots go to the git-ignored artifacts folder. */
+export async function screenshot(page: Page, name: string): Promise<string> {
+  const dir = process.env.OHMWARD_ARTIFACTS ?? join(process.cwd(), 'artifacts')
+  mkdirSync(dir, { recursive: true })
+  const path = join(dir, `${name}.png`)
+  await page.screenshot({ path, fullPage: true })
+  return path
+}
