@@ -37,3 +37,25 @@ export const sessions = pgTable(
   },
   (t) => [index('sessions_user_idx').on(t.userId)],
 )
+
+export const authTokenPurpose = pgEnum('auth_token_purpose', ['verify_email', 'reset_password', 'change_email'])
+
+/**
+ * Single-use e-mailed tokens (e-mail verification, password reset, e-mail change). Only the SHA-256 hash of
+ * the token is stored; the token itself exists only in the mail. `email` is the address the link proves.
+ */
+export const authTokens = pgTable(
+  'auth_tokens',
+  {
+    tokenHash: text('token_hash').primaryKey(),
+    userId: text('user_id')
+      .notNull()
+      .references(() => users.id, { onDelete: 'cascade' }),
+    purpose: authTokenPurpose('purpose').notNull(),
+    email: text('email').notNull(),
+    expiresAt: timestamp('expires_at', { withTimezone: true, mode: 'date' }).notNull(),
+    usedAt: timestamp('used_at', { withTimezone: true, mode: 'date' }),
+    createdAt: timestamp('created_at', { withTimezone: true, mode: 'date' }).notNull().defaultNow(),
+  },
+  (t) => [index('auth_tokens_user_idx').on(t.userId, t.purpose)],
+)
