@@ -1,0 +1,370 @@
+/**
+ * The hourly pack loop: thermal step, charge window, bus balance, charge/discharge limits, shedding.
+ * Works on a PreparedTrip so searches can run it many times with other capacities or array sizes.
+ *
+ * Per hour (1 h step, so W and Wh per hour are the same number):
+ *   direct   = min(sources, demand)               sources feed loads without passing through the pack
+ *   chargeIn = min(surplus, limit·taper, room/η_c) stored: chargeIn·η_c
+ *   out      = min(deficit, I_max·V, (E − E_floor)·η_d / f_Peukert)   removed: out·f/η_d
+ *   unserved = deficit − out
+ * Energy balance: chargeIn − out − losses = ΔE, losses = chargeIn(1 − η_c) + out(f/η_d − 1).
+ */
+import type { PreparedTrip } from '../prepare.ts'
+import { LOAD_CATEGORIES, CATEGORY_INDEX, SOURCE_KINDS } from '../prepare.ts'
+import { stepPackTemperature, type ThermalParams } from '../thermal/packTemperature.ts'
+import { uValueWPerM2K } from '../thermal/heatLoss.ts'
+import { peukertFactor } from './peukert.ts'
+import { chargeTaperFactor, oneWayEfficiency } from './charge.ts'
+
+export interface RunOptions {
+  /** Pack capacity; mass, box area (^2/3) and current limits scale with it. Default: the plan's. [Ah] */
+  capacityAh?: number
+  /** Multiplier on every solar array (Wp and controller current together). Default 1. */
+  solarScale?: number
+  /** false = no charge source at all (autonomy). Default true. */
+  sourcesOn?: boolean
+  startSocFraction?: number
+  /** Fill the hourly series and day rows. Searches pass false. Default true. */
+  record?: boolean
+  /** Run this many hours, repeating the trip's days. Default: the trip. */
+  hours?: number
+  /** Stop at the first hour that sheds load for lack of charge (autonomy). */
+  stopAtFirstShortage?: boolean
+}
+
+export interface HourlySeries {
+  /** State of charge at the end of each hour. [0–1] */
+  socEndFraction: Float64Array
+  /** Pack temperature at the start of each hour (the value the BMS checks). [°C] */
+  packTempStartC: Float64Array
+  ambientC: Float64Array
+  /** GHI after the sky scaling. [W/m²] */
+  ghiWPerM2: Float64Array
+  sunElevationDeg: Float64Array
+  /** Used source power by kind, [kind][hour]. [W] */
+  sourceW: Record<(typeof SOURCE_KINDS)[number], Float64Array>
+  /** Served power by category, [category][hour]. [W] */
+  loadW: Record<(typeof LOAD_CATEGORIES)[number], Float64Array>
+  unservedW: Float64Array
+  /** Source power that found no use (pack full, charge limit). [W] */
+  curtailedW: Float64Array
+  /** Source power lost because the pack was outside its charge temperature window. [W] */
+  chargeBlockedW: Float64Array
+  /** Conversion, Peukert losses in the pack. [W] */
+  packLossW: Float64Array
+  /** 1 if charging was blocked by cold in that hour, else 0. */
+  chargeBlockedCold: Uint8Array
+}
+
+export interface DayRow {
+  day: number
+  date: string
+  inWh: Record<(typeof SOURCE_KINDS)[number], number>
+  outWh: Record<(typeof LOAD_CATEGORIES)[number], number>
+  lowestSocFraction: number
+  finalSocFraction: number
+  heaterWh: number
+  chargeBlockedColdH: number
+  chargeBlockedHotH: number
+  chargeBlockedWh: number
+  unservedWh: number
+  curtailedWh: number
+  packLossWh: number
+  generatorFuelL: number
+}
+
+export interface RunTotals {
+  startStoredWh: number
+  endStoredWh: number
+  capacityWh: number
+  floorWh: number
+  startSocFraction: number
+  finalSocFraction: number
+  lowestSocFraction: number
+  lowestSocHour: number
+  /** Shed because the pack was at its floor or its discharge current limit. [Wh] */
+  shortageWh: number
+  /** Shed because the pack was outside its discharge temperature window. [Wh] */
+  dischargeBlockedWh: number
+  /** AC demand above the inverter rating. [Wh] */
+  inverterOverloadWh: number
+  unservedWh: number
+  sourceUsedWh: number
+  servedWh: number
+  chargeInWh: number
+  dischargeOutWh: number
+  packLossWh: number
+  /** Charge removed from the pack ÷ capacity. */
+  equivalentFullCycles: number
+  firstShortageHour: number
+  hoursRun: number
+  chargeBlockedColdH: number
+}
+
+export interface RunResult {
+  totals: RunTotals
+  series: HourlySeries | null
+  dayRows: DayRow[] | null
+}
+
+const NCAT = LOAD_CATEGORIES.length
+const HEATER = CATEGORY_INDEX.heater
+
+function newSeries(prep: PreparedTrip): HourlySeries {
+  const n = prep.hours
+  const arr = () => new Float64Array(n)
+  return {
+    socEndFraction: arr(),
+    packTempStartC: arr(),
+    ambientC: prep.ambientC,
+    ghiWPerM2: prep.ghiWPerM2,
+    sunElevationDeg: prep.sun.elevationDeg,
+    sourceW: { solar: arr(), dcdc: arr(), shore: arr(), generator: arr() },
+    loadW: Object.fromEntries(LOAD_CATEGORIES.map((c) => [c, arr()])) as HourlySeries['loadW'],
+    unservedW: arr(),
+    curtailedW: arr(),
+    chargeBlockedW: arr(),
+    packLossW: arr(),
+    chargeBlockedCold: new Uint8Array(n),
+  }
+}
+
+function isoDate(epochMs: number): string {
+  return new Date(epochMs).toISOString().slice(0, 10)
+}
+
+function newDayRow(day: number, date: string, soc: number): DayRow {
+  return {
+    day,
+    date,
+    inWh: { solar: 0, dcdc: 0, shore: 0, generator: 0 },
+    outWh: Object.fromEntries(LOAD_CATEGORIES.map((c) => [c, 0])) as DayRow['outWh'],
+    lowestSocFraction: soc,
+    finalSocFraction: soc,
+    heaterWh: 0,
+    chargeBlockedColdH: 0,
+    chargeBlockedHotH: 0,
+    chargeBlockedWh: 0,
+    unservedWh: 0,
+    curtailedWh: 0,
+    packLossWh: 0,
+    generatorFuelL: 0,
+  }
+}
+
+/** Run the pack over the prepared trip. */
+export function runPack(prep: PreparedTrip, opt: RunOptions = {}): RunResult {
+  const b = prep.plan.battery
+  const capAh = opt.capacityAh ?? b.capacityAh
+  const scale = capAh / b.capacityAh
+  const solarScale = opt.solarScale ?? 1
+  const sourcesOn = opt.sourcesOn ?? true
+  const record = opt.record ?? true
+  const hoursToRun = opt.hours ?? prep.hours
+  const vNom = b.nominalVoltageV
+  const capWh = capAh * vNom
+  const floorWh = capWh * b.socFloorFraction
+  const ceilWh = capWh * b.socCeilingFraction
+  const etaC = oneWayEfficiency(b.roundTripEfficiencyFraction)
+  const etaD = etaC
+  const maxChargeW = b.maxChargeCurrentA * scale * b.chargeVoltageV
+  const maxDischargeW = b.maxDischargeCurrentA * scale * vNom
+  const massKg = b.massKg * scale
+  const areaM2 = b.enclosure.areaM2 * Math.cbrt(scale * scale)
+  const thermal: ThermalParams = {
+    heatCapacityJPerK: massKg * b.specificHeatJPerKgK,
+    conductanceWPerK: uValueWPerM2K(b.enclosure.thicknessM, b.enclosure.conductivityWPerMK) * areaM2,
+    heaterPowerW: b.heater?.powerW ?? 0,
+    heaterOnBelowC: b.heater?.onBelowC ?? -Infinity,
+    heaterOffAboveC: b.heater?.offAboveC ?? -Infinity,
+  }
+  const startSoc = opt.startSocFraction ?? prep.plan.trip.startSocFraction
+  const fuelLPerH = prep.plan.sources.generator.reduce((s, g) => s + g.fuelLPerH, 0)
+
+  let stored = startSoc * capWh
+  let packT = prep.ambientC[0]!
+  let heaterOn = false
+  const t: RunTotals = {
+    startStoredWh: stored,
+    endStoredWh: stored,
+    capacityWh: capWh,
+    floorWh,
+    startSocFraction: startSoc,
+    finalSocFraction: startSoc,
+    lowestSocFraction: startSoc,
+    lowestSocHour: -1,
+    shortageWh: 0,
+    dischargeBlockedWh: 0,
+    inverterOverloadWh: 0,
+    unservedWh: 0,
+    sourceUsedWh: 0,
+    servedWh: 0,
+    chargeInWh: 0,
+    dischargeOutWh: 0,
+    packLossWh: 0,
+    equivalentFullCycles: 0,
+    firstShortageHour: -1,
+    hoursRun: 0,
+    chargeBlockedColdH: 0,
+  }
+  const series = record ? newSeries(prep) : null
+  const dayRows: DayRow[] | null = record ? [] : null
+  let row: DayRow | null = null
+  let removedWh = 0
+
+  for (let h = 0; h < hoursToRun; h++) {
+    const i = h % prep.hours
+    const hod = i % 24
+    if (dayRows && hod === 0) {
+      row = newDayRow(
+        dayRows.length,
+        isoDate(prep.sun.dayStartUtcMs[i / 24]! + 12 * 3_600_000),
+        stored / capWh,
+      )
+      dayRows.push(row)
+    }
+    const ambient = prep.ambientC[i]!
+    const t0 = packT
+    const chargeCold = t0 < b.chargeMinC
+    const chargeHot = t0 > b.chargeMaxC
+    const dischargeOk = t0 >= b.dischargeMinC && t0 <= b.dischargeMaxC
+
+    // Thermal step: the heater is a load like any other.
+    let th = stepPackTemperature(thermal, t0, heaterOn, ambient, 1)
+    let heaterW = thermal.heaterPowerW * th.heaterOnH
+    const baseW = prep.demandW[hod]!
+    const demand = baseW + heaterW
+
+    let srcAvail = 0
+    let sol = 0
+    let dcdc = 0
+    let shore = 0
+    let gen = 0
+    if (sourcesOn) {
+      sol = prep.solarW[i]! * solarScale
+      dcdc = prep.dcdcW[i]!
+      shore = prep.shoreW[i]!
+      gen = prep.generatorW[i]!
+      srcAvail = sol + dcdc + shore + gen
+    }
+    let blockedW = 0
+    let direct: number
+    if ((chargeCold || chargeHot) && srcAvail > 0) {
+      // Charge path open: the sources are cut off from the pack and the load bus; their energy is lost to the
+      // plan, except what the heater pad takes (pads are fed from the charge side so a cold pack can warm up
+      // and accept charge again; without that a pack at its floor in the cold could never recover).
+      direct = Math.min(srcAvail, heaterW)
+      blockedW = srcAvail - direct
+      srcAvail = direct
+    } else {
+      direct = Math.min(srcAvail, demand)
+    }
+    const surplus = srcAvail - direct
+    const deficit = demand - direct
+
+    let chargeIn = 0
+    if (surplus > 0) {
+      const taper = chargeTaperFactor(stored / capWh, b.chargeTaperStartSocFraction, b.socCeilingFraction)
+      chargeIn = Math.min(surplus, maxChargeW * taper, Math.max(0, ceilWh - stored) / etaC)
+      stored += chargeIn * etaC
+    }
+    const curtailed = surplus - chargeIn
+
+    let out = 0
+    let f = 1
+    let shortage = 0
+    let dischargeBlocked = 0
+    if (deficit > 0) {
+      if (!dischargeOk) {
+        dischargeBlocked = deficit
+      } else {
+        const want = Math.min(deficit, maxDischargeW)
+        f = peukertFactor(capAh, b.ratedDischargeH, want / vNom, b.peukertExponent)
+        const avail = (Math.max(0, stored - floorWh) * etaD) / f
+        out = Math.min(want, avail)
+        stored -= (out * f) / etaD
+        shortage = deficit - out
+      }
+    }
+    if (stored < 0) stored = 0 // numerical guard; the floor check above keeps it ≥ floor
+    const unserved = deficit - out
+    const servedFraction = demand > 0 ? (direct + out) / demand : 1
+    if (servedFraction < 1 && heaterW > 0) {
+      // The pad got only part of its power: redo the thermal step with what it really got.
+      th = stepPackTemperature(
+        { ...thermal, heaterPowerW: thermal.heaterPowerW * servedFraction },
+        t0,
+        heaterOn,
+        ambient,
+        1,
+      )
+    }
+    heaterW *= servedFraction
+    packT = th.endTempC
+    heaterOn = th.heaterOnEnd
+
+    const loss = chargeIn * (1 - etaC) + out * (f / etaD - 1)
+    removedWh += (out * f) / etaD
+    const soc = stored / capWh
+    const used = direct + chargeIn
+    const overload = prep.inverterOverloadW[hod]!
+
+    t.sourceUsedWh += used
+    t.servedWh += direct + out
+    t.chargeInWh += chargeIn
+    t.dischargeOutWh += out
+    t.packLossWh += loss
+    t.shortageWh += shortage
+    t.dischargeBlockedWh += dischargeBlocked
+    t.inverterOverloadWh += overload
+    t.unservedWh += unserved + overload
+    if (chargeCold && blockedW > 0) t.chargeBlockedColdH++
+    if (soc < t.lowestSocFraction) {
+      t.lowestSocFraction = soc
+      t.lowestSocHour = h
+    }
+    t.hoursRun = h + 1
+    if (shortage > 1e-9 && t.firstShortageHour < 0) {
+      t.firstShortageHour = h
+      if (opt.stopAtFirstShortage) break
+    }
+
+    if (series && row) {
+      series.socEndFraction[i] = soc
+      series.packTempStartC[i] = t0
+      const share = srcAvail > 0 ? used / srcAvail : 0
+      series.sourceW.solar[i] = sol * share
+      series.sourceW.dcdc[i] = dcdc * share
+      series.sourceW.shore[i] = shore * share
+      series.sourceW.generator[i] = gen * share
+      for (let c = 0; c < NCAT; c++) {
+        const w = c === HEATER ? heaterW : prep.demandByCategoryW[hod * NCAT + c]! * servedFraction
+        series.loadW[LOAD_CATEGORIES[c]!][i] = w
+        row.outWh[LOAD_CATEGORIES[c]!] += w
+      }
+      series.unservedW[i] = unserved + overload
+      series.curtailedW[i] = curtailed
+      series.chargeBlockedW[i] = blockedW
+      series.packLossW[i] = loss
+      series.chargeBlockedCold[i] = chargeCold && blockedW > 0 ? 1 : 0
+      row.inWh.solar += sol * share
+      row.inWh.dcdc += dcdc * share
+      row.inWh.shore += shore * share
+      row.inWh.generator += gen * share
+      row.lowestSocFraction = Math.min(row.lowestSocFraction, soc)
+      row.finalSocFraction = soc
+      row.heaterWh += heaterW
+      if (blockedW > 0 && chargeCold) row.chargeBlockedColdH++
+      if (blockedW > 0 && chargeHot) row.chargeBlockedHotH++
+      row.chargeBlockedWh += blockedW
+      row.unservedWh += unserved + overload
+      row.curtailedWh += curtailed
+      row.packLossWh += loss
+      row.generatorFuelL += prep.generatorRunH[i]! * fuelLPerH
+    }
+  }
+  t.endStoredWh = stored
+  t.finalSocFraction = stored / capWh
+  t.equivalentFullCycles = removedWh / capWh
+  return { totals: t, series, dayRows }
+}
