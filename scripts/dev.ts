@@ -11,6 +11,7 @@ import { seedDemoIfEmpty } from '../server/seed/index'
 const PORT = Number(process.env.PORT ?? 3000)
 const FAKE_PORTS = {
   smtp: Number(process.env.SMTP_PORT ?? 2525),
+  smtpApi: Number(process.env.SMTP_API_PORT ?? 2526),
   stripe: Number(process.env.OHMWARD_STRIPE_FAKE_PORT ?? 12111),
 }
 startCluster(ensureCluster(PG_DIR, PG_PORT))
@@ -28,6 +29,7 @@ const env = {
   PORT: String(PORT),
   APP_URL: 'http://127.0.0.1:5173',
   SMTP_PORT: String(FAKE_PORTS.smtp),
+  OHMWARD_FAKE_MAIL_API: `http://127.0.0.1:${FAKE_PORTS.smtpApi}`,
   STRIPE_API_URL: `http://127.0.0.1:${FAKE_PORTS.stripe}`,
 }
 children.push(spawn('npx', ['tsx', 'watch', 'server/index.ts'], { cwd: ROOT, stdio: 'inherit', env }))

@@ -16,6 +16,7 @@ const PORT = Number(process.env.PORT ?? 3000)
 const HOST = process.env.HOST ?? '127.0.0.1'
 const FAKE_PORTS = {
   smtp: Number(process.env.SMTP_PORT ?? 2525),
+  smtpApi: Number(process.env.SMTP_API_PORT ?? 2526),
   stripe: Number(process.env.OHMWARD_STRIPE_FAKE_PORT ?? 12111),
 }
 
@@ -47,6 +48,7 @@ const server = spawn(process.execPath, ['--import', 'tsx', resolve(ROOT, 'server
     HOST,
     APP_URL: process.env.APP_URL ?? `http://${HOST}:${PORT}`,
     SMTP_PORT: String(FAKE_PORTS.smtp),
+    OHMWARD_FAKE_MAIL_API: `http://127.0.0.1:${FAKE_PORTS.smtpApi}`,
     STRIPE_API_URL: process.env.STRIPE_API_URL ?? `http://127.0.0.1:${FAKE_PORTS.stripe}`,
   },
 })

@@ -19,6 +19,15 @@ const EnvSchema = z.object({
   STRIPE_WEBHOOK_SECRET: z.string().default('whsec_ohmward_local'),
   STRIPE_API_URL: z.string().url().optional(),
   RATE_LIMIT_PER_MINUTE: z.coerce.number().int().positive().default(600),
+  /** Sign-in, sign-up and password-reset attempts allowed per client address in each window (each limit apart). */
+  AUTH_RATE_LIMIT_MAX: z.coerce.number().int().positive().optional(),
+  AUTH_RATE_LIMIT_WINDOW_SECONDS: z.coerce.number().int().positive().default(900),
+  /** Outbox worker: how often it looks for due mail, the first retry delay (doubling), and the attempts before giving up. */
+  MAIL_POLL_MS: z.coerce.number().int().positive().default(1000),
+  MAIL_RETRY_BASE_SECONDS: z.coerce.number().positive().default(30),
+  MAIL_MAX_ATTEMPTS: z.coerce.number().int().positive().default(20),
+  /** The local fake SMTP server's HTTP API (development and tests), read by the /dev mailbox. */
+  OHMWARD_FAKE_MAIL_API: z.string().url().optional(),
 })
 
 export type Env = z.infer<typeof EnvSchema>
@@ -29,5 +38,8 @@ export function loadEnv(source: NodeJS.ProcessEnv = process.env): Env {
     const lines = parsed.error.issues.map((i) => `  ${i.path.join('.')}: ${i.message}`)
     throw new Error(`Invalid environment:\n${lines.join('\n')}`)
   }
-  return parsed.data
+  const env = parsed.data
+  // Tests sign in many times from one address; they lower the limit explicitly when they test it.
+  env.AUTH_RATE_LIMIT_MAX ??= env.NODE_ENV === 'test' ? 10_000 : 10
+  return env
 }

@@ -1,4 +1,5 @@
 import type { AppContext } from './context'
+import { startOutboxWorker } from './services/mail-worker'
 
 export interface Workers {
   stop(): Promise<void>
@@ -10,7 +11,7 @@ export interface Workers {
  */
 export function startBackgroundWorkers(ctx: AppContext): Workers {
   const running: Array<{ stop(): Promise<void> }> = []
-  void ctx
+  running.push(startOutboxWorker(ctx))
   return {
     async stop() {
       await Promise.all(running.map((w) => w.stop()))

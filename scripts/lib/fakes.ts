@@ -15,7 +15,14 @@ export interface FakeSpec {
 
 export function fakeSpecs(ports: Record<string, number>): FakeSpec[] {
   void ports
-  return []
+  return [
+    {
+      name: 'mail',
+      script: 'scripts/fakes/mail.ts',
+      env: { SMTP_PORT: String(ports.smtp ?? 2525), SMTP_API_PORT: String(ports.smtpApi ?? 2526) },
+    },
+    { name: 'payments', script: 'scripts/fakes/payments.ts', env: { PORT: String(ports.stripe ?? 12111) } },
+  ]
 }
 
 export async function startFakes(specs: FakeSpec[], quiet = false): Promise<ChildProcess[]> {

@@ -1,6 +1,7 @@
 import { Router } from 'express'
 import type { AppContext } from '../context'
 import { healthRouter } from './health'
+import { accountRouter, adminRouter, authRouter } from '../modules/auth/routes'
 
 /**
  * Every API area, mounted under /api. One line per area: keep edits here to a single line each.
@@ -8,5 +9,8 @@ import { healthRouter } from './health'
 export function apiRouter(ctx: AppContext): Router {
   const api = Router()
   api.use('/health', healthRouter(ctx))
+  api.use('/auth', authRouter(ctx))
+  api.use('/account', accountRouter(ctx))
+  api.use('/admin', adminRouter(ctx))
   return api
 }
