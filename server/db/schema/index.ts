@@ -3,3 +3,6 @@
 export * from './auth'
 export * from './mail'
 export * from './ratelimit'
+export * from './vehicles'
+export * from './scenarios'
+export * from './history'
