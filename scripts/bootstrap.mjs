@@ -9,9 +9,13 @@ const digest = createHash('sha256').update(lock).digest('hex')
 const marker = 'node_modules/.ohmward-lock-digest'
 const current = existsSync(marker) ? readFileSync(marker, 'utf8').trim() : ''
 
-if (!existsSync('node_modules') || current !== digest || !statSync('node_modules').isDirectory()) {
-  console.log('[ohmward] installing Node packages (npm ci)…')
-  const r = spawnSync('npm', ['ci', '--no-audit', '--no-fund', '--loglevel=error'], { stdio: 'inherit' })
+const fresh = !existsSync('node_modules') || !statSync('node_modules').isDirectory()
+if (fresh || current !== digest) {
+  // A fresh checkout gets the exact lockfile (npm ci); an existing install is brought up to date in place
+  // (npm install), which never wipes node_modules under a running process.
+  const args = fresh ? ['ci'] : ['install']
+  console.log(`[ohmward] installing Node packages (npm ${args[0]})…`)
+  const r = spawnSync('npm', [...args, '--no-audit', '--no-fund', '--loglevel=error'], { stdio: 'inherit' })
   if (r.status !== 0) {
     console.error('[ohmward] npm ci failed; see the messages above.')
     process.exit(r.status ?? 1)
