@@ -82,7 +82,12 @@ function fits(
   input: CableRunInput,
   checkFuse: boolean,
 ): SizedConductor | null {
-  const dropV = voltageDropV(input.currentA, input.oneWayLengthM, c.resistance20COhmPerKm, input.conductorTempC)
+  const dropV = voltageDropV(
+    input.currentA,
+    input.oneWayLengthM,
+    c.resistance20COhmPerKm,
+    input.conductorTempC,
+  )
   const dropFraction = dropV / input.systemVoltageV
   if (dropFraction > input.maxDropFraction + 1e-12) return null
   if (checkFuse && input.fuseA !== null && (ampacityA === null || ampacityA < input.fuseA)) return null
@@ -115,7 +120,8 @@ export function sizeCable(input: CableRunInput): CableSizing {
     }
   }
   const fuseProtectsCable =
-    metric !== null && (input.fuseA === null || (metric.ampacityA !== null && metric.ampacityA >= input.fuseA))
+    metric !== null &&
+    (input.fuseA === null || (metric.ampacityA !== null && metric.ampacityA >= input.fuseA))
   return {
     metric,
     awg,

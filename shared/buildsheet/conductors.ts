@@ -4,7 +4,8 @@
  */
 import { idealCopperResistance20COhmPerKm } from './copper.ts'
 
-export type ConductorClass = 'class5' | 'class2'
+export const CONDUCTOR_CLASSES = ['class5', 'class2'] as const
+export type ConductorClass = (typeof CONDUCTOR_CLASSES)[number]
 
 export interface MetricConductor {
   areaMm2: number

@@ -31,7 +31,10 @@ export function copperResistanceRatio(conductorTempC: number): number {
  * @param conductorTempC - conductor temperature [°C]
  * @returns resistance at T [Ω/km]
  */
-export function copperResistanceAtTempOhmPerKm(resistance20COhmPerKm: number, conductorTempC: number): number {
+export function copperResistanceAtTempOhmPerKm(
+  resistance20COhmPerKm: number,
+  conductorTempC: number,
+): number {
   return resistance20COhmPerKm * copperResistanceRatio(conductorTempC)
 }
 
