@@ -38,7 +38,10 @@ export interface SpreadTrend {
 }
 
 /** Least-squares line y = a + b·x. */
-export function leastSquares(xs: readonly number[], ys: readonly number[]): { intercept: number; slope: number; r2: number } {
+export function leastSquares(
+  xs: readonly number[],
+  ys: readonly number[],
+): { intercept: number; slope: number; r2: number } {
   const n = xs.length
   const mx = xs.reduce((s, x) => s + x, 0) / n
   const my = ys.reduce((s, y) => s + y, 0) / n
