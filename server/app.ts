@@ -35,7 +35,9 @@ export function createApp(ctx: AppContext, options: CreateAppOptions = {}): Expr
     }),
   )
   app.use(requestLog(ctx.log))
-  app.use('/api', express.json({ limit: '2mb' }))
+  // Payment webhooks need the raw body for their signature check; their router parses it itself.
+  const json = express.json({ limit: '2mb' })
+  app.use('/api', (req, res, next) => (req.path.startsWith('/webhooks/') ? next() : json(req, res, next)))
   app.use('/api', sessionMiddleware(ctx.lucia))
   app.use('/api', sameOrigin(ctx.env.APP_URL))
   app.use('/api', apiRouter(ctx))

@@ -2,6 +2,10 @@ import { Router } from 'express'
 import type { AppContext } from '../context'
 import { healthRouter } from './health'
 import { accountRouter, adminRouter, authRouter } from '../modules/auth/routes'
+import { crewRouter } from '../modules/crew/routes'
+import { advisorsRouter } from '../modules/advisors/routes'
+import { reviewsRouter } from '../modules/reviews/routes'
+import { paymentsWebhookRouter } from '../modules/payments/webhook'
 
 /**
  * Every API area, mounted under /api. One line per area: keep edits here to a single line each.
@@ -12,5 +16,9 @@ export function apiRouter(ctx: AppContext): Router {
   api.use('/auth', authRouter(ctx))
   api.use('/account', accountRouter(ctx))
   api.use('/admin', adminRouter(ctx))
+  api.use('/webhooks', paymentsWebhookRouter(ctx))
+  api.use('/advisors', advisorsRouter(ctx))
+  api.use('/reviews', reviewsRouter(ctx))
+  api.use('/', crewRouter(ctx))
   return api
 }
