@@ -11,7 +11,6 @@ import { dayOfYearUtc } from './sun/declination.ts'
 import { extraterrestrialNormalSpencerWPerM2 } from './irradiance/extraterrestrial.ts'
 import { clearSkyGhiHaurwitzWPerM2 } from './irradiance/clearSky.ts'
 import { splitErbs1982 } from './irradiance/erbs.ts'
-import { planeOfArrayIsotropicWPerM2 } from './irradiance/transposition.ts'
 import { cellTempNoctC, pvwattsDcW, CONTROLLER_FACTOR } from './pv/module.ts'
 import { ambientTempC } from './thermal/ambient.ts'
 import { applianceDayProfileW, overlapWithWindowH } from './loads/profile.ts'
@@ -150,23 +149,31 @@ function solarAvailable(
 ): Float64Array {
   const n = ghi.length
   const out = new Float64Array(n)
+  const arrays = plan.sources.solar
+  if (arrays.length === 0) return out
   const vCharge = plan.battery.chargeVoltageV
+  const albedo = plan.trip.groundAlbedoFraction
+  const DEG = Math.PI / 180
+  // Per-array constants, so the hourly loop does no allocation (this runs for every hour of a year).
+  const cosTilt = arrays.map((a) => Math.cos(a.tiltDeg * DEG))
+  const sinTilt = arrays.map((a) => Math.sin(a.tiltDeg * DEG))
   for (let i = 0; i < n; i++) {
-    if (ghi[i]! <= 0 || plan.sources.solar.length === 0) continue
+    const g = ghi[i]!
+    if (g <= 0) continue
     const zen = 90 - sun.elevationDeg[i]!
-    const split = splitErbs1982(ghi[i]!, zen, sun.extraNormalWPerM2[i]!)
+    const split = splitErbs1982(g, zen, sun.extraNormalWPerM2[i]!)
+    const cosZ = Math.cos(zen * DEG)
+    const sinZ = Math.sin(zen * DEG)
     let w = 0
-    for (const a of plan.sources.solar) {
-      const poa = planeOfArrayIsotropicWPerM2({
-        dniWPerM2: split.dniWPerM2,
-        dhiWPerM2: split.dhiWPerM2,
-        ghiWPerM2: ghi[i]!,
-        zenithDeg: zen,
-        sunAzimuthDeg: sun.azimuthDeg[i]!,
-        tiltDeg: a.tiltDeg,
-        surfaceAzimuthDeg: a.azimuthDeg,
-        albedoFraction: plan.trip.groundAlbedoFraction,
-      })
+    for (let k = 0; k < arrays.length; k++) {
+      const a = arrays[k]!
+      // Isotropic transposition (transposition.ts, planeOfArrayIsotropicWPerM2), inlined.
+      const cosAoi =
+        cosZ * cosTilt[k]! + sinZ * sinTilt[k]! * Math.cos((sun.azimuthDeg[i]! - a.azimuthDeg) * DEG)
+      const poa =
+        split.dniWPerM2 * Math.max(0, cosAoi) +
+        (split.dhiWPerM2 * (1 + cosTilt[k]!)) / 2 +
+        (g * albedo * (1 - cosTilt[k]!)) / 2
       const dc = pvwattsDcW(poa, cellTempNoctC(poa, ambient[i]!, a.noctC), a.peakPowerWp, a.tempCoeffPerC)
       const atPack = dc * (1 - a.lossesFraction) * CONTROLLER_FACTOR[a.controller]
       w += Math.min(atPack, a.maxCurrentA * vCharge)

@@ -60,7 +60,9 @@ export const CHEMISTRY_PRESETS: Readonly<Record<Chemistry, Readonly<ChemistryPre
     socFloorFraction: 0.1, // 90 % design depth of discharge [M] REFERENCES §5.1
     socCeilingFraction: 1, // common practice, no source
     roundTripEfficiencyFraction: 0.95, // 92–97 % [M] REFERENCES §5.1
-    peukertExponent: 1.05, // 1.02–1.07, Omar et al. 2013 (Energies 6:5625) [R abstract]
+    // Peukert is a lead-acid law; LFP delivers near its rating up to ~1C. Omar et al. 2013 (Energies 6:5625)
+    // fit 1.02–1.07 for 0.2–2C [R abstract]; set it per pack to model that. Default 1: common practice, no source.
+    peukertExponent: 1,
     ratedDischargeH: 20, // capacity quoted at C20 for comparison with lead-acid [CP]
     chargeTaperStartSocFraction: 1, // LFP accepts full current until the short CV phase [CP]
     chargeMinC: 0, // no charging below 0 °C: lithium plating, Petzl & Danzer 2014 [R abstract]

@@ -11,7 +11,11 @@
  */
 import type { PreparedTrip } from '../prepare.ts'
 import { LOAD_CATEGORIES, CATEGORY_INDEX, SOURCE_KINDS } from '../prepare.ts'
-import { stepPackTemperature, type ThermalParams } from '../thermal/packTemperature.ts'
+import {
+  stepPackTemperatureInto,
+  type ThermalParams,
+  type ThermalStepResult,
+} from '../thermal/packTemperature.ts'
 import { uValueWPerM2K } from '../thermal/heatLoss.ts'
 import { peukertFactor } from './peukert.ts'
 import { chargeTaperFactor, oneWayEfficiency } from './charge.ts'
@@ -110,23 +114,102 @@ export interface RunResult {
 const NCAT = LOAD_CATEGORIES.length
 const HEATER = CATEGORY_INDEX.heater
 
-function newSeries(prep: PreparedTrip): HourlySeries {
-  const n = prep.hours
-  const arr = () => new Float64Array(n)
+/** Flat recording buffers: loads as [category * hours + hour], so each category is a contiguous view. */
+interface Recorder {
+  soc: Float64Array
+  packT: Float64Array
+  load: Float64Array
+  source: Float64Array
+  unserved: Float64Array
+  curtailed: Float64Array
+  blocked: Float64Array
+  loss: Float64Array
+  blockedCold: Uint8Array
+}
+
+function newRecorder(n: number): Recorder {
+  // One allocation for all the Float64 series (they are views into it).
+  const buf = new Float64Array(n * (6 + NCAT + SOURCE_KINDS.length))
+  let at = 0
+  const take = (len: number) => buf.subarray(at, (at += len))
   return {
-    socEndFraction: arr(),
-    packTempStartC: arr(),
+    soc: take(n),
+    packT: take(n),
+    load: take(n * NCAT),
+    source: take(n * SOURCE_KINDS.length),
+    unserved: take(n),
+    curtailed: take(n),
+    blocked: take(n),
+    loss: take(n),
+    blockedCold: new Uint8Array(n),
+  }
+}
+
+function seriesFrom(prep: PreparedTrip, r: Recorder): HourlySeries {
+  const n = prep.hours
+  const view = (buf: Float64Array, k: number) => buf.subarray(k * n, (k + 1) * n)
+  return {
+    socEndFraction: r.soc,
+    packTempStartC: r.packT,
     ambientC: prep.ambientC,
     ghiWPerM2: prep.ghiWPerM2,
     sunElevationDeg: prep.sun.elevationDeg,
-    sourceW: { solar: arr(), dcdc: arr(), shore: arr(), generator: arr() },
-    loadW: Object.fromEntries(LOAD_CATEGORIES.map((c) => [c, arr()])) as HourlySeries['loadW'],
-    unservedW: arr(),
-    curtailedW: arr(),
-    chargeBlockedW: arr(),
-    packLossW: arr(),
-    chargeBlockedCold: new Uint8Array(n),
+    sourceW: {
+      solar: view(r.source, 0),
+      dcdc: view(r.source, 1),
+      shore: view(r.source, 2),
+      generator: view(r.source, 3),
+    },
+    loadW: Object.fromEntries(LOAD_CATEGORIES.map((c, k) => [c, view(r.load, k)])) as HourlySeries['loadW'],
+    unservedW: r.unserved,
+    curtailedW: r.curtailed,
+    chargeBlockedW: r.blocked,
+    packLossW: r.loss,
+    chargeBlockedCold: r.blockedCold,
   }
+}
+
+/** Day rows from the hourly record: sums and extremes per local day. */
+function dayRowsFrom(
+  prep: PreparedTrip,
+  r: Recorder,
+  startSoc: number,
+  fuelLPerH: number,
+  b: { chargeMinC: number; chargeMaxC: number },
+): DayRow[] {
+  const n = prep.hours
+  const rows: DayRow[] = []
+  let prevSoc = startSoc
+  for (let d = 0; d < prep.days; d++) {
+    const row = newDayRow(d, isoDate(prep.sun.dayStartUtcMs[d]! + 12 * 3_600_000), prevSoc)
+    for (let i = d * 24; i < d * 24 + 24; i++) {
+      const soc = r.soc[i]!
+      if (soc < row.lowestSocFraction) row.lowestSocFraction = soc
+      row.inWh.solar += r.source[i]!
+      row.inWh.dcdc += r.source[n + i]!
+      row.inWh.shore += r.source[2 * n + i]!
+      row.inWh.generator += r.source[3 * n + i]!
+      if (r.blocked[i]! > 0) {
+        if (r.packT[i]! < b.chargeMinC) row.chargeBlockedColdH++
+        else if (r.packT[i]! > b.chargeMaxC) row.chargeBlockedHotH++
+      }
+      row.chargeBlockedWh += r.blocked[i]!
+      row.unservedWh += r.unserved[i]!
+      row.curtailedWh += r.curtailed[i]!
+      row.packLossWh += r.loss[i]!
+      row.generatorFuelL += prep.generatorRunH[i]! * fuelLPerH
+    }
+    for (let c = 0; c < NCAT; c++) {
+      let sum = 0
+      for (let i = d * 24; i < d * 24 + 24; i++) sum += r.load[c * n + i]!
+      row.outWh[LOAD_CATEGORIES[c]!] = sum
+    }
+    row.heaterWh = row.outWh.heater
+    row.finalSocFraction = r.soc[d * 24 + 23]!
+    prevSoc = row.finalSocFraction
+    rows.push(row)
+  }
+  return rows
 }
 
 function isoDate(epochMs: number): string {
@@ -138,7 +221,19 @@ function newDayRow(day: number, date: string, soc: number): DayRow {
     day,
     date,
     inWh: { solar: 0, dcdc: 0, shore: 0, generator: 0 },
-    outWh: Object.fromEntries(LOAD_CATEGORIES.map((c) => [c, 0])) as DayRow['outWh'],
+    outWh: {
+      fridge: 0,
+      lighting: 0,
+      cooking: 0,
+      heating: 0,
+      electronics: 0,
+      water: 0,
+      ventilation: 0,
+      other: 0,
+      inverter: 0,
+      bms: 0,
+      heater: 0,
+    },
     lowestSocFraction: soc,
     finalSocFraction: soc,
     heaterWh: 0,
@@ -207,22 +302,14 @@ export function runPack(prep: PreparedTrip, opt: RunOptions = {}): RunResult {
     hoursRun: 0,
     chargeBlockedColdH: 0,
   }
-  const series = record ? newSeries(prep) : null
-  const dayRows: DayRow[] | null = record ? [] : null
-  let row: DayRow | null = null
+  const rec = record ? newRecorder(prep.hours) : null
+  const n = prep.hours
   let removedWh = 0
+  const thStep: ThermalStepResult = { endTempC: 0, heaterOnEnd: false, heaterOnH: 0 }
 
   for (let h = 0; h < hoursToRun; h++) {
     const i = h % prep.hours
     const hod = i % 24
-    if (dayRows && hod === 0) {
-      row = newDayRow(
-        dayRows.length,
-        isoDate(prep.sun.dayStartUtcMs[i / 24]! + 12 * 3_600_000),
-        stored / capWh,
-      )
-      dayRows.push(row)
-    }
     const ambient = prep.ambientC[i]!
     const t0 = packT
     const chargeCold = t0 < b.chargeMinC
@@ -230,7 +317,7 @@ export function runPack(prep: PreparedTrip, opt: RunOptions = {}): RunResult {
     const dischargeOk = t0 >= b.dischargeMinC && t0 <= b.dischargeMaxC
 
     // Thermal step: the heater is a load like any other.
-    let th = stepPackTemperature(thermal, t0, heaterOn, ambient, 1)
+    const th = stepPackTemperatureInto(thStep, thermal, t0, heaterOn, ambient, 1)
     let heaterW = thermal.heaterPowerW * th.heaterOnH
     const baseW = prep.demandW[hod]!
     const demand = baseW + heaterW
@@ -291,7 +378,8 @@ export function runPack(prep: PreparedTrip, opt: RunOptions = {}): RunResult {
     const servedFraction = demand > 0 ? (direct + out) / demand : 1
     if (servedFraction < 1 && heaterW > 0) {
       // The pad got only part of its power: redo the thermal step with what it really got.
-      th = stepPackTemperature(
+      stepPackTemperatureInto(
+        th,
         { ...thermal, heaterPowerW: thermal.heaterPowerW * servedFraction },
         t0,
         heaterOn,
@@ -329,42 +417,27 @@ export function runPack(prep: PreparedTrip, opt: RunOptions = {}): RunResult {
       if (opt.stopAtFirstShortage) break
     }
 
-    if (series && row) {
-      series.socEndFraction[i] = soc
-      series.packTempStartC[i] = t0
+    if (rec && h < n) {
+      rec.soc[i] = soc
+      rec.packT[i] = t0
       const share = srcAvail > 0 ? used / srcAvail : 0
-      series.sourceW.solar[i] = sol * share
-      series.sourceW.dcdc[i] = dcdc * share
-      series.sourceW.shore[i] = shore * share
-      series.sourceW.generator[i] = gen * share
-      for (let c = 0; c < NCAT; c++) {
-        const w = c === HEATER ? heaterW : prep.demandByCategoryW[hod * NCAT + c]! * servedFraction
-        series.loadW[LOAD_CATEGORIES[c]!][i] = w
-        row.outWh[LOAD_CATEGORIES[c]!] += w
-      }
-      series.unservedW[i] = unserved + overload
-      series.curtailedW[i] = curtailed
-      series.chargeBlockedW[i] = blockedW
-      series.packLossW[i] = loss
-      series.chargeBlockedCold[i] = chargeCold && blockedW > 0 ? 1 : 0
-      row.inWh.solar += sol * share
-      row.inWh.dcdc += dcdc * share
-      row.inWh.shore += shore * share
-      row.inWh.generator += gen * share
-      row.lowestSocFraction = Math.min(row.lowestSocFraction, soc)
-      row.finalSocFraction = soc
-      row.heaterWh += heaterW
-      if (blockedW > 0 && chargeCold) row.chargeBlockedColdH++
-      if (blockedW > 0 && chargeHot) row.chargeBlockedHotH++
-      row.chargeBlockedWh += blockedW
-      row.unservedWh += unserved + overload
-      row.curtailedWh += curtailed
-      row.packLossWh += loss
-      row.generatorFuelL += prep.generatorRunH[i]! * fuelLPerH
+      rec.source[i] = sol * share
+      rec.source[n + i] = dcdc * share
+      rec.source[2 * n + i] = shore * share
+      rec.source[3 * n + i] = gen * share
+      const base = hod * NCAT
+      for (let c = 0; c < NCAT; c++) rec.load[c * n + i] = prep.demandByCategoryW[base + c]! * servedFraction
+      rec.load[HEATER * n + i] = heaterW
+      rec.unserved[i] = unserved + overload
+      rec.curtailed[i] = curtailed
+      rec.blocked[i] = blockedW
+      rec.loss[i] = loss
+      rec.blockedCold[i] = chargeCold && blockedW > 0 ? 1 : 0
     }
   }
   t.endStoredWh = stored
   t.finalSocFraction = stored / capWh
   t.equivalentFullCycles = removedWh / capWh
-  return { totals: t, series, dayRows }
+  if (!rec) return { totals: t, series: null, dayRows: null }
+  return { totals: t, series: seriesFrom(prep, rec), dayRows: dayRowsFrom(prep, rec, startSoc, fuelLPerH, b) }
 }

@@ -9,17 +9,12 @@ import type { ResolvedAppliance } from '../presets.ts'
 export function overlapWithWindowH(hour: number, startHour: number, endHour: number): number {
   const len = windowLengthH(startHour, endHour)
   if (len >= 24) return 1
-  let total = 0
-  // The window as one or two intervals on [0, 24].
+  // The window as [a, b] on the clock, and the same shifted back a day (for the part past midnight).
   const a = startHour % 24
   const b = a + len
-  for (const [s, e] of [
-    [a, b],
-    [a - 24, b - 24],
-  ] as const) {
-    total += Math.max(0, Math.min(hour + 1, e) - Math.max(hour, s))
-  }
-  return Math.min(1, total)
+  const first = Math.max(0, Math.min(hour + 1, b) - Math.max(hour, a))
+  const second = Math.max(0, Math.min(hour + 1, b - 24) - Math.max(hour, a - 24))
+  return Math.min(1, first + second)
 }
 
 /**

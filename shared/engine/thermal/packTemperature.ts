@@ -43,6 +43,25 @@ export function stepPackTemperature(
   ambientC: number,
   stepH: number,
 ): ThermalStepResult {
+  return stepPackTemperatureInto(
+    { endTempC: 0, heaterOnEnd: false, heaterOnH: 0 },
+    p,
+    startTempC,
+    heaterOnStart,
+    ambientC,
+    stepH,
+  )
+}
+
+/** As stepPackTemperature, writing into `out` (no allocation in the hourly loop). */
+export function stepPackTemperatureInto(
+  out: ThermalStepResult,
+  p: ThermalParams,
+  startTempC: number,
+  heaterOnStart: boolean,
+  ambientC: number,
+  stepH: number,
+): ThermalStepResult {
   const tauS = p.heatCapacityJPerK / p.conductanceWPerK
   let t = startTempC
   let on = heaterOnStart
@@ -68,5 +87,8 @@ export function stepPackTemperature(
       on = !on
     }
   }
-  return { endTempC: t, heaterOnEnd: on, heaterOnH: onS / 3600 }
+  out.endTempC = t
+  out.heaterOnEnd = on
+  out.heaterOnH = onS / 3600
+  return out
 }
