@@ -1,6 +1,7 @@
 import { Router } from 'express'
 import type { AppContext } from '../context'
 import { healthRouter } from './health'
+import { resultsRouter } from '../modules/results/results.routes'
 import { accountRouter, adminRouter, authRouter } from '../modules/auth/routes'
 import { crewRouter } from '../modules/crew/routes'
 import { advisorsRouter } from '../modules/advisors/routes'
@@ -13,6 +14,7 @@ import { paymentsWebhookRouter } from '../modules/payments/webhook'
 export function apiRouter(ctx: AppContext): Router {
   const api = Router()
   api.use('/health', healthRouter(ctx))
+  api.use('/scenarios', resultsRouter(ctx))
   api.use('/auth', authRouter(ctx))
   api.use('/account', accountRouter(ctx))
   api.use('/admin', adminRouter(ctx))

@@ -5,6 +5,8 @@ export interface NavItem {
   icon: string
   label: string
   hint: string
+  /** Shown only to accounts with this role. */
+  role?: 'admin'
 }
 
 export const mainNav: NavItem[] = [
@@ -22,6 +24,14 @@ export const mainNav: NavItem[] = [
     label: 'Scenarios',
     hint: 'Trips, seasons and places',
   },
+  {
+    name: 'compare',
+    to: '/side-by-side',
+    icon: 'compare_arrows',
+    label: 'Side by side',
+    hint: 'Compare scenarios',
+  },
   { name: 'reviews', to: '/reviews', icon: 'rate_review', label: 'Reviews', hint: 'Advice on your plans' },
   { name: 'account', to: '/account', icon: 'account_circle', label: 'Account', hint: 'Profile and units' },
+  { name: 'admin', to: '/admin/users', icon: 'admin_panel_settings', label: 'People', hint: 'Accounts and roles', role: 'admin' },
 ]

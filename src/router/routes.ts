@@ -22,6 +22,8 @@ export const routes: RouteRecordRaw[] = [
         component: () => import('../pages/ScenariosPage.vue'),
         meta: { title: 'Scenarios' },
       },
+      { path: 'scenarios/:scenarioId/outlook', name: 'outlook', component: () => import('../pages/ScenarioOutlookPage.vue'), meta: { requiresAuth: true, title: 'Outlook' } },
+      { path: 'side-by-side', name: 'compare', component: () => import('../pages/ComparePage.vue'), meta: { requiresAuth: true, title: 'Side by side' } },
       {
         path: 'reviews',
         name: 'reviews',

@@ -1,0 +1,25 @@
+import { Router } from 'express'
+import type { AppContext } from '../../context'
+import { requireUser } from '../../middleware/require-user'
+import { actorOf } from '../vehicles/actor'
+import { loadScenarioForUser } from '../scenarios/scenarios.service'
+import { buildPlanForScenario } from '../scenarios/plan'
+import { resultsForPlan } from './results.service'
+
+/**
+ * GET /api/scenarios/:scenarioId/results → `{ scenarioId, computedInMs, cached, results }`, `results` being
+ * the engine's analysis JSON (shared/engine resultsToJson(analysePlan(plan))). Read access as for the
+ * scenario itself (members of its vehicle; others 404); 422 `plan_incomplete` when the vehicle cannot be run.
+ */
+export function resultsRouter(ctx: AppContext): Router {
+  const { db } = ctx
+  const r = Router()
+  r.get('/:scenarioId/results', requireUser, async (req, res) => {
+    const { row } = await loadScenarioForUser(db, actorOf(res).id, req.params.scenarioId, 'read')
+    const plan = await buildPlanForScenario(db, row.id)
+    const { results, cached, computedInMs } = resultsForPlan(plan)
+    res.setHeader('Cache-Control', 'private, no-cache')
+    res.json({ scenarioId: row.id, computedInMs: Math.round(computedInMs), cached, results })
+  })
+  return r
+}

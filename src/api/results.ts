@@ -1,0 +1,130 @@
+/**
+ * Client calls for the Outlook and Side by side screens: scenarios, their plans, stored results, and
+ * saving a "Try a change" as a new scenario. Answers are checked with the shared zod schemas.
+ */
+import { z } from 'zod'
+import { http } from './http'
+import { PlanSchema, type Plan } from '@shared/schemas/plan'
+import {
+  ScenarioListSchema,
+  ScenarioSchema,
+  VehicleDetailSchema,
+  type Scenario,
+  type ScenarioList,
+  type ScenarioUsage,
+  type VehicleDetail,
+} from '@shared/schemas/vehicles'
+import type { AnalysisJson } from '../composables/useEngineWorker'
+
+export async function fetchScenario(scenarioId: string, signal?: AbortSignal): Promise<Scenario> {
+  return ScenarioSchema.parse(await http.get(`/scenarios/${encodeURIComponent(scenarioId)}`, signal))
+}
+
+export async function fetchScenarioPlan(scenarioId: string, signal?: AbortSignal): Promise<Plan> {
+  return PlanSchema.parse(await http.get(`/scenarios/${encodeURIComponent(scenarioId)}/plan`, signal))
+}
+
+/** Every scenario the user can read, across vehicles (first 100, newest first as the server orders them). */
+export async function fetchReadableScenarios(signal?: AbortSignal): Promise<ScenarioList> {
+  return ScenarioListSchema.parse(await http.get('/scenarios?limit=100', signal)) as ScenarioList
+}
+
+export async function fetchVehicle(vehicleId: string): Promise<VehicleDetail> {
+  return VehicleDetailSchema.parse(await http.get(`/vehicles/${encodeURIComponent(vehicleId)}`))
+}
+
+/** GET /api/scenarios/:scenarioId/results: the engine's full analysis of the stored plan, as JSON. */
+export const ScenarioResultsSchema = z.object({
+  scenarioId: z.string(),
+  computedInMs: z.number(),
+  results: z.looseObject({
+    verdict: z.looseObject({ status: z.enum(['carries', 'tight', 'short']) }),
+    summary: z.looseObject({}),
+    days: z.array(z.unknown()),
+  }),
+})
+export interface ScenarioResults {
+  scenarioId: string
+  computedInMs: number
+  results: AnalysisJson
+}
+
+export async function fetchScenarioResults(scenarioId: string, signal?: AbortSignal): Promise<ScenarioResults> {
+  const body = await http.get(`/scenarios/${encodeURIComponent(scenarioId)}/results`, signal)
+  ScenarioResultsSchema.parse(body)
+  return body as ScenarioResults
+}
+
+export interface SaveWhatIfInput {
+  scenario: Scenario
+  /** The plan with the change applied. */
+  plan: Plan
+  name: string
+  /** true: the pack or array changed, which belong to the vehicle: save on a copy of the vehicle. */
+  equipmentChanged: boolean
+}
+
+export interface SavedWhatIf {
+  scenarioId: string
+  vehicleId: string
+  /** true when a copy of the vehicle was made to hold a different pack or array. */
+  vehicleCopied: boolean
+}
+
+/**
+ * Keep a what-if. A trip-only change (driving, night low, sky) becomes a copy of the scenario in the same
+ * vehicle. A pack or array change cannot live in a scenario (both are the vehicle's equipment), so the
+ * vehicle is copied with the tried pack and array, and the scenario is created on the copy.
+ */
+export async function saveWhatIf(input: SaveWhatIfInput): Promise<SavedWhatIf> {
+  const { scenario, plan, name } = input
+  const canWrite = scenario.myRole === 'owner' || scenario.myRole === 'editor'
+  if (!input.equipmentChanged && canWrite) {
+    const copy = ScenarioSchema.parse(
+      await http.post(`/scenarios/${encodeURIComponent(scenario.id)}/duplicate`, { name }),
+    )
+    const saved = ScenarioSchema.parse(
+      await http.patch(`/scenarios/${encodeURIComponent(copy.id)}`, { version: copy.version, trip: plan.trip }),
+    )
+    return { scenarioId: saved.id, vehicleId: saved.vehicleId, vehicleCopied: false }
+  }
+  const original = await fetchVehicle(scenario.vehicleId)
+  const vehicle = VehicleDetailSchema.parse(
+    await http.post('/vehicles', {
+      name: `${original.name} (${name})`.slice(0, 120),
+      kind: original.kind,
+      systemVoltageV: original.systemVoltageV,
+      notes: `Copied from “${original.name}” to keep a tried change from the Outlook of “${scenario.name}”.`,
+    }),
+  )
+  const vid = encodeURIComponent(vehicle.id)
+  await http.put(`/vehicles/${vid}/battery`, { version: 0, battery: plan.battery })
+  if (plan.inverter) await http.put(`/vehicles/${vid}/inverter`, { version: 0, inverter: plan.inverter })
+  const idMap = new Map<string, string>()
+  for (const a of plan.appliances) {
+    const { id, usage: _usage, ...fields } = a
+    void _usage
+    const rec = await http.post<{ id: string }>(`/vehicles/${vid}/appliances`, fields)
+    idMap.set(id, rec.id)
+  }
+  for (const s of plan.sources) {
+    const { id: _id, ...fields } = s
+    void _id
+    await http.post(`/vehicles/${vid}/sources`, fields)
+  }
+  const usage: ScenarioUsage = {}
+  for (const a of plan.appliances) {
+    const newId = idMap.get(a.id)
+    if (a.usage && newId) usage[newId] = a.usage
+  }
+  const created = ScenarioSchema.parse(
+    await http.post(`/vehicles/${vid}/scenarios`, {
+      name,
+      placeName: scenario.placeName || undefined,
+      notes: scenario.notes || undefined,
+      trip: plan.trip,
+      usage,
+    }),
+  )
+  return { scenarioId: created.id, vehicleId: vehicle.id, vehicleCopied: true }
+}

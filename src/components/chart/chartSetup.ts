@@ -1,0 +1,145 @@
+/**
+ * chart.js set-up shared by the Chart*.vue components: only the pieces we draw with are registered, no
+ * animation (screenshots and the what-if benchmark must see the final frame), our fixed series colours
+ * (Okabe–Ito, DESIGN.md) and a plugin that shades nights.
+ */
+import {
+  Chart,
+  BarController,
+  BarElement,
+  CategoryScale,
+  Filler,
+  Legend,
+  LineController,
+  LineElement,
+  LinearScale,
+  PointElement,
+  Tooltip,
+  type Plugin,
+} from 'chart.js'
+
+Chart.register(
+  BarController,
+  BarElement,
+  CategoryScale,
+  Filler,
+  Legend,
+  LineController,
+  LineElement,
+  LinearScale,
+  PointElement,
+  Tooltip,
+)
+Chart.defaults.font.family = 'Nunito, system-ui, sans-serif'
+Chart.defaults.font.size = 12
+Chart.defaults.color = '#3b4444'
+Chart.defaults.animation = false
+
+/** Fixed meanings across every chart (DESIGN.md). */
+export const SERIES = {
+  solar: '#E69F00',
+  dcdc: '#0072B2',
+  shore: '#009E73',
+  generator: '#CC79A7',
+  heater: '#D55E00',
+  loads: '#56B4E9',
+  soc: '#000000',
+  night: 'rgba(0, 0, 0, 0.07)',
+  grid: '#E6E2D8',
+} as const
+
+export const SOURCE_LABELS = {
+  solar: 'Solar',
+  dcdc: 'Alternator (DC-DC)',
+  shore: 'Shore power',
+  generator: 'Generator',
+} as const
+
+/** Line styles that tell scenarios apart without colour (Side by side). */
+export const DASHES: number[][] = [[], [8, 4], [2, 3], [10, 3, 2, 3]]
+
+/** Diagonal hatching, so "out" bars and blocked hours differ from "in" bars by more than colour. */
+export function hatch(color: string, background = 'rgba(255,255,255,0)'): CanvasPattern | string {
+  if (typeof document === 'undefined') return color
+  const c = document.createElement('canvas')
+  c.width = 8
+  c.height = 8
+  const g = c.getContext('2d')
+  if (!g) return color
+  g.fillStyle = background
+  g.fillRect(0, 0, 8, 8)
+  g.strokeStyle = color
+  g.lineWidth = 2
+  g.beginPath()
+  g.moveTo(0, 8)
+  g.lineTo(8, 0)
+  g.moveTo(-2, 2)
+  g.lineTo(2, -2)
+  g.moveTo(6, 10)
+  g.lineTo(10, 6)
+  g.stroke()
+  return g.createPattern(c, 'repeat') ?? color
+}
+
+export interface BandOptions {
+  /** [startX, endX) ranges in x-axis units. */
+  ranges: [number, number][]
+  color: string | CanvasPattern
+  /** Only this share of the plot's height, from the bottom (a strip). Default 1. */
+  heightFraction?: number
+}
+
+/** Draws vertical bands (nights, blocked hours) behind the datasets; options under plugins.owBands. */
+export const bandsPlugin: Plugin = {
+  id: 'owBands',
+  beforeDatasetsDraw(chart, _args, options) {
+    const o = options as unknown as { bands?: BandOptions[] }
+    const x = chart.scales.x
+    const area = chart.chartArea
+    if (!x || !o.bands) return
+    const ctx = chart.ctx
+    ctx.save()
+    for (const band of o.bands) {
+      ctx.fillStyle = band.color
+      for (const [a, b] of band.ranges) {
+        const left = Math.max(area.left, x.getPixelForValue(a))
+        const right = Math.min(area.right, x.getPixelForValue(b))
+        const h = (area.bottom - area.top) * (band.heightFraction ?? 1)
+        if (right > left) ctx.fillRect(left, area.bottom - h, right - left, h)
+      }
+    }
+    ctx.restore()
+  },
+}
+
+/** Runs of hours where `test(i)` holds, as [start, end) in days from the trip start. */
+export function hourRanges(n: number, test: (i: number) => boolean): [number, number][] {
+  const out: [number, number][] = []
+  let start = -1
+  for (let i = 0; i <= n; i++) {
+    const on = i < n && test(i)
+    if (on && start < 0) start = i
+    if (!on && start >= 0) {
+      out.push([start / 24, i / 24])
+      start = -1
+    }
+  }
+  return out
+}
+
+/** x-axis in days from the trip start, ticks on whole days ("day 1" sits between 0 and 1). */
+export function dayAxis(days: number) {
+  return {
+    type: 'linear' as const,
+    min: 0,
+    max: days,
+    grid: { color: SERIES.grid },
+    ticks: {
+      stepSize: days > 60 ? 30 : days > 14 ? 7 : 1,
+      callback: (v: number | string) => `day ${Number(v) + 1}`,
+      maxRotation: 0,
+      autoSkipPadding: 12,
+    },
+    title: { display: false, text: '' },
+  }
+}

@@ -1,0 +1,104 @@
+/**
+ * Key-figure formatting for the Outlook and Side by side screens: every figure with its unit, rounded for
+ * reading (not for arithmetic), in the user's temperature and mass units. Pure functions.
+ *
+ * Energy, charge and power stay SI everywhere (Wh/kWh, Ah, Wp, W): imperial users plan DC systems in the
+ * same units. Temperature follows the °C/°F preference; mass follows metric/imperial.
+ */
+import type { UnitPrefs } from '../../composables/displayUnits'
+
+const MINUS = '\u2212'
+const LB_PER_KG = 1 / 0.45359237 // international avoirdupois pound, exact by definition (1959)
+
+/** A number with thousands separators and the typographic minus. */
+export function formatNumber(v: number, decimals = 0): string {
+  const f = 10 ** decimals
+  const r = Math.round(v * f) / f
+  const s = (Object.is(r, -0) ? 0 : r).toLocaleString('en-GB', {
+    minimumFractionDigits: decimals,
+    maximumFractionDigits: decimals,
+  })
+  return s.replace('-', MINUS)
+}
+
+const missing = (v: number | null | undefined): v is null | undefined => v === null || v === undefined || !Number.isFinite(v)
+
+/** Energy: below 1 kWh in Wh (whole), then kWh with 1 decimal (whole from 100 kWh). */
+export function formatEnergy(wh: number | null | undefined): string {
+  if (missing(wh)) return '—'
+  const abs = Math.abs(wh)
+  if (abs < 999.5) return `${formatNumber(wh)} Wh`
+  const kwh = wh / 1000
+  return `${formatNumber(kwh, Math.abs(kwh) >= 99.95 ? 0 : 1)} kWh`
+}
+
+/** Energy in Wh, whole, for tables that must line up. */
+export function formatWh(wh: number | null | undefined): string {
+  return missing(wh) ? '—' : `${formatNumber(wh)} Wh`
+}
+
+export function formatAh(ah: number | null | undefined): string {
+  return missing(ah) ? '—' : `${formatNumber(ah)} Ah`
+}
+
+export function formatWp(wp: number | null | undefined): string {
+  return missing(wp) ? '—' : `${formatNumber(wp)} Wp`
+}
+
+export function formatHours(h: number | null | undefined): string {
+  if (missing(h)) return '—'
+  return `${formatNumber(h, Number.isInteger(h) ? 0 : 1)} h`
+}
+
+/** Days with one decimal below 10, whole above; "1 day", "0.5 days". */
+export function formatDays(days: number | null | undefined): string {
+  if (missing(days)) return '—'
+  const text = formatNumber(days, days < 9.95 ? 1 : 0).replace(/\.0$/, '')
+  return `${text} ${text === '1' ? 'day' : 'days'}`
+}
+
+/** State of charge (0–1) as a whole percentage: 0.234 → "23 %". */
+export function formatPercent(fraction: number | null | undefined): string {
+  return missing(fraction) ? '—' : `${formatNumber(fraction * 100)} %`
+}
+
+/** A temperature stored in °C, shown in the user's unit, whole degrees: −6 °C, 21 °F. */
+export function formatTemperature(c: number | null | undefined, prefs: UnitPrefs, decimals = 0): string {
+  if (missing(c)) return '—'
+  if (prefs.temperatureUnit === 'F') return `${formatNumber((c * 9) / 5 + 32, decimals)} °F`
+  return `${formatNumber(c, decimals)} °C`
+}
+
+export function temperatureToDisplay(c: number, prefs: UnitPrefs): number {
+  return prefs.temperatureUnit === 'F' ? (c * 9) / 5 + 32 : c
+}
+export function temperatureFromDisplay(v: number, prefs: UnitPrefs): number {
+  return prefs.temperatureUnit === 'F' ? ((v - 32) * 5) / 9 : v
+}
+export function temperatureUnitLabel(prefs: UnitPrefs): string {
+  return prefs.temperatureUnit === 'F' ? '°F' : '°C'
+}
+
+/** Mass stored in kg: 22 kg, 49 lb. */
+export function formatMass(kg: number | null | undefined, prefs: UnitPrefs): string {
+  if (missing(kg)) return '—'
+  if (prefs.unitSystem === 'imperial') return `${formatNumber(kg * LB_PER_KG)} lb`
+  return `${formatNumber(kg)} kg`
+}
+
+/**
+ * A moment of the trip from an hour index (hour i covers [i, i+1) from local midnight of day 1):
+ * "day 4 at 06:00". `atEnd` names the end of the hour (the SOC series holds end-of-hour values).
+ */
+export function formatTripMoment(hourIndex: number, atEnd = false): string {
+  const h = hourIndex + (atEnd ? 1 : 0)
+  const day = Math.floor(h / 24) + 1
+  const clock = String(h % 24).padStart(2, '0')
+  return `day ${day} at ${clock}:00`
+}
+
+/** Money with a currency code: "1,240 EUR" (whole units; plan prices are rough). */
+export function formatMoney(v: number | null | undefined, currency = ''): string {
+  if (missing(v)) return '—'
+  return currency ? `${formatNumber(v)} ${currency}` : formatNumber(v)
+}

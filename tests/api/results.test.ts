@@ -1,0 +1,104 @@
+import { afterAll, beforeAll, describe, expect, it } from 'vitest'
+import request from 'supertest'
+import { createApp } from '../../server/app'
+import { testContext, uniq } from '../support/context'
+import { createUser, type TestUser } from '../support/factories'
+import { analysePlan, parsePlan, resultsToJson } from '../../shared/engine/index'
+import { clearResultsCache } from '../../server/modules/results/results.service'
+import { examplePlan, storePlan, type Send } from './results.fixture'
+
+const ctx = testContext()
+const app = createApp(ctx)
+afterAll(() => ctx.pool.end())
+
+const sender =
+  (user: TestUser): Send =>
+  async (method, path, body) => {
+    const req = request(app)[method.toLowerCase() as 'get' | 'post' | 'put' | 'patch'](path).set('Cookie', user.cookie)
+    const res = body === undefined ? await req : await req.send(body as object)
+    return { status: res.status, body: res.body }
+  }
+
+describe('GET /api/scenarios/:scenarioId/results', () => {
+  let owner: TestUser
+  let stranger: TestUser
+  let winter: { vehicleId: string; scenarioId: string }
+
+  beforeAll(async () => {
+    owner = await createUser(ctx)
+    stranger = await createUser(ctx)
+    winter = await storePlan(sender(owner), examplePlan('winter-week-lofoten'), {
+      vehicle: `Van ${uniq()}`,
+      scenario: 'Winter week',
+    })
+  })
+
+  it('answers 401 without a session', async () => {
+    const res = await request(app).get(`/api/scenarios/${winter.scenarioId}/results`)
+    expect(res.status).toBe(401)
+    expect(res.body.error.code).toBe('unauthorized')
+  })
+
+  it('answers 404 to someone who is not on the vehicle, like a scenario that does not exist', async () => {
+    const res = await request(app).get(`/api/scenarios/${winter.scenarioId}/results`).set('Cookie', stranger.cookie)
+    expect(res.status).toBe(404)
+    const missing = await request(app)
+      .get('/api/scenarios/00000000-0000-4000-8000-000000000000/results')
+      .set('Cookie', owner.cookie)
+    expect(missing.status).toBe(404)
+  })
+
+  it('gives exactly what the engine gives for the same plan JSON in this process (browser-vs-server identity)', async () => {
+    clearResultsCache()
+    const planRes = await request(app).get(`/api/scenarios/${winter.scenarioId}/plan`).set('Cookie', owner.cookie)
+    expect(planRes.status).toBe(200)
+    const res = await request(app).get(`/api/scenarios/${winter.scenarioId}/results`).set('Cookie', owner.cookie)
+    expect(res.status).toBe(200)
+    expect(res.body.scenarioId).toBe(winter.scenarioId)
+    expect(res.body.cached).toBe(false)
+
+    // The browser receives the plan as JSON, validates it with the same schema and runs the same engine.
+    const parsed = parsePlan(JSON.parse(JSON.stringify(planRes.body)))
+    expect(parsed.ok).toBe(true)
+    if (!parsed.ok) return
+    const local = JSON.parse(JSON.stringify(resultsToJson(analysePlan(parsed.plan))))
+    expect(res.body.results).toEqual(local)
+    expect(JSON.stringify(res.body.results)).toBe(JSON.stringify(local))
+
+    // Sanity: these are real results of this trip, not an empty shell.
+    expect(res.body.results.days).toHaveLength(7)
+    expect(res.body.results.series.socEndFraction).toHaveLength(7 * 24)
+    expect(['carries', 'tight', 'short']).toContain(res.body.results.verdict.status)
+    expect(res.body.results.packNeeded.capacityAh).toBeGreaterThan(0)
+
+    const again = await request(app).get(`/api/scenarios/${winter.scenarioId}/results`).set('Cookie', owner.cookie)
+    expect(again.body.cached).toBe(true)
+    expect(again.body.results).toEqual(res.body.results)
+  })
+
+  it('follows an edit of the stored scenario (the memo is keyed by the plan)', async () => {
+    const before = await request(app).get(`/api/scenarios/${winter.scenarioId}/results`).set('Cookie', owner.cookie)
+    const sc = await request(app).get(`/api/scenarios/${winter.scenarioId}`).set('Cookie', owner.cookie)
+    const trip = { ...sc.body.trip, nightLowC: sc.body.trip.nightLowC - 10, dayHighC: sc.body.trip.dayHighC - 10 }
+    const patched = await request(app)
+      .patch(`/api/scenarios/${winter.scenarioId}`)
+      .set('Cookie', owner.cookie)
+      .send({ version: sc.body.version, trip })
+    expect(patched.status).toBe(200)
+    const after = await request(app).get(`/api/scenarios/${winter.scenarioId}/results`).set('Cookie', owner.cookie)
+    expect(after.body.cached).toBe(false)
+    expect(after.body.results.plan.trip.nightLowC).toBe(trip.nightLowC)
+    expect(after.body.results.summary.heaterWh).toBeGreaterThan(before.body.results.summary.heaterWh)
+  })
+
+  it('answers 422 plan_incomplete for a vehicle without a battery bank', async () => {
+    const s = sender(owner)
+    const v = await s('POST', '/api/vehicles', { name: `Bare ${uniq()}`, kind: 'van', systemVoltageV: 12 })
+    const plan = examplePlan('summer-month-andalusia')
+    const sc = await s('POST', `/api/vehicles/${v.body.id}/scenarios`, { name: 'No pack yet', trip: plan.trip })
+    expect(sc.status).toBe(201)
+    const res = await request(app).get(`/api/scenarios/${sc.body.id}/results`).set('Cookie', owner.cookie)
+    expect(res.status).toBe(422)
+    expect(res.body.error.code).toBe('plan_incomplete')
+  })
+})
