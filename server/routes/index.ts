@@ -3,6 +3,7 @@ import type { AppContext } from '../context'
 import { healthRouter } from './health'
 import { resultsRouter } from '../modules/results/results.routes'
 import { accountRouter, adminRouter, authRouter } from '../modules/auth/routes'
+import { buildSheetRouter } from '../modules/buildsheet/buildsheet.routes'
 import { crewRouter } from '../modules/crew/routes'
 import { advisorsRouter } from '../modules/advisors/routes'
 import { reviewsRouter } from '../modules/reviews/routes'
@@ -21,6 +22,7 @@ export function apiRouter(ctx: AppContext): Router {
   api.use('/webhooks', paymentsWebhookRouter(ctx))
   api.use('/advisors', advisorsRouter(ctx))
   api.use('/reviews', reviewsRouter(ctx))
+  api.use('/vehicles', buildSheetRouter(ctx))
   api.use('/', crewRouter(ctx))
   return api
 }
