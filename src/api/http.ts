@@ -32,6 +32,14 @@ export async function api<T = unknown>(
   body?: unknown,
   signal?: AbortSignal,
 ): Promise<T> {
+  if (method !== 'GET' && typeof navigator !== 'undefined' && navigator.onLine === false) {
+    // Offline rule: edits are refused clearly, never queued silently; the form keeps what was typed.
+    throw new ApiError(
+      0,
+      'offline',
+      'You are offline, so this change was not saved. It is still in the form: save again once you have a signal.',
+    )
+  }
   let res: Response
   try {
     res = await fetch(path.startsWith('/api') ? path : `/api${path}`, {
@@ -50,7 +58,7 @@ export async function api<T = unknown>(
   }
   if (res.status === 204) return undefined as T
   const text = await res.text()
-  let json: unknown = null
+  let json: unknown
   try {
     json = text ? JSON.parse(text) : null
   } catch {

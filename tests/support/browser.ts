@@ -32,8 +32,14 @@ export const VIEWPORTS = {
 export async function newPage(
   browser: Browser,
   viewport: { width: number; height: number } = VIEWPORTS.desktop,
+  options: { serviceWorkers?: 'allow' | 'block' } = {},
 ): Promise<{ context: BrowserContext; page: Page; requests: string[] }> {
-  const context = await browser.newContext({ viewport, reducedMotion: 'reduce' })
+  // The service worker is blocked unless a test is about offline use, so caches never hide a server answer.
+  const context = await browser.newContext({
+    viewport,
+    reducedMotion: 'reduce',
+    serviceWorkers: options.serviceWorkers ?? 'block',
+  })
   const page = await context.newPage()
   const requests: string[] = []
   page.on('request', (r) => requests.push(r.url()))
