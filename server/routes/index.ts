@@ -1,6 +1,10 @@
 import { Router } from 'express'
 import type { AppContext } from '../context'
 import { healthRouter } from './health'
+import { vehiclesRouter } from '../modules/vehicles/vehicles.routes'
+import { scenariosRouter } from '../modules/scenarios/scenarios.routes'
+import { placesRouter } from '../modules/places/places.routes'
+import { applianceLibraryRouter } from '../modules/vehicles/library'
 import { resultsRouter } from '../modules/results/results.routes'
 import { accountRouter, adminRouter, authRouter } from '../modules/auth/routes'
 import { buildSheetRouter } from '../modules/buildsheet/buildsheet.routes'
@@ -15,6 +19,10 @@ import { paymentsWebhookRouter } from '../modules/payments/webhook'
 export function apiRouter(ctx: AppContext): Router {
   const api = Router()
   api.use('/health', healthRouter(ctx))
+  api.use('/vehicles', vehiclesRouter(ctx))
+  api.use('/scenarios', scenariosRouter(ctx))
+  api.use('/places', placesRouter(ctx))
+  api.use('/appliance-library', applianceLibraryRouter(ctx))
   api.use('/scenarios', resultsRouter(ctx))
   api.use('/auth', authRouter(ctx))
   api.use('/account', accountRouter(ctx))

@@ -1,6 +1,7 @@
 import { sql } from 'drizzle-orm'
 import type { Db } from '../db/client'
 import { seedUsers } from './users'
+import { seedVehicles } from './vehicles'
 
 /** Seed the invented demo when the database has no users yet. Returns whether it seeded. */
 export async function seedDemoIfEmpty(db: Db): Promise<boolean> {
@@ -13,4 +14,5 @@ export async function seedDemoIfEmpty(db: Db): Promise<boolean> {
 /** Every demo step, in order. One line per step. */
 export async function seedDemo(db: Db): Promise<void> {
   await seedUsers(db)
+  await seedVehicles(db)
 }

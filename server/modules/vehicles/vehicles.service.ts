@@ -1,0 +1,184 @@
+/** Vehicles and their members: list, create, read, change, delete. */
+import { and, desc, eq, sql } from 'drizzle-orm'
+import type {
+  Member,
+  Page,
+  PageQuery,
+  Vehicle,
+  VehicleCreate,
+  VehicleDetail,
+  VehiclePatch,
+  VehicleRole,
+} from '../../../shared/schemas/vehicles'
+import type { Db } from '../../db/client'
+import { users, vehicleMemberships, vehicles } from '../../db/schema/index'
+import { notFound } from '../../errors'
+import { requireVehicleRole } from './access'
+import {
+  changedKeys,
+  iso,
+  quoted,
+  recordHistory,
+  refOf,
+  staleVersion,
+  userRefs,
+  type Actor,
+  type DbOrTx,
+} from './records'
+
+type VehicleRow = typeof vehicles.$inferSelect
+
+const counts = {
+  scenarioCount: sql<number>`(SELECT count(*)::int FROM scenarios s WHERE s.vehicle_id = ${vehicles.id})`,
+  applianceCount: sql<number>`(SELECT count(*)::int FROM appliances a WHERE a.vehicle_id = ${vehicles.id})`,
+}
+
+/** The fields a history entry compares. */
+const editableFields = (v: VehicleRow) => ({
+  name: v.name,
+  kind: v.kind,
+  systemVoltageV: v.systemVoltageV,
+  notes: v.notes,
+})
+
+async function presentMany(
+  db: DbOrTx,
+  rows: { vehicle: VehicleRow; myRole: VehicleRole; scenarioCount: number; applianceCount: number }[],
+): Promise<Vehicle[]> {
+  const refs = await userRefs(
+    db,
+    rows.map((r) => r.vehicle.updatedBy),
+  )
+  return rows.map(({ vehicle: v, myRole, scenarioCount, applianceCount }) => ({
+    id: v.id,
+    ...editableFields(v),
+    myRole,
+    createdAt: iso(v.createdAt),
+    scenarioCount,
+    applianceCount,
+    version: v.version,
+    updatedAt: iso(v.updatedAt),
+    updatedBy: refOf(refs, v.updatedBy),
+  }))
+}
+
+export async function listMembers(db: DbOrTx, vehicleId: string): Promise<Member[]> {
+  const rows = await db
+    .select({
+      userId: vehicleMemberships.userId,
+      displayName: users.displayName,
+      role: vehicleMemberships.role,
+      since: vehicleMemberships.createdAt,
+    })
+    .from(vehicleMemberships)
+    .innerJoin(users, eq(users.id, vehicleMemberships.userId))
+    .where(eq(vehicleMemberships.vehicleId, vehicleId))
+    .orderBy(vehicleMemberships.createdAt)
+  const order: Record<VehicleRole, number> = { owner: 0, editor: 1, viewer: 2, advisor: 3 }
+  return rows.map((r) => ({ ...r, since: iso(r.since) })).sort((a, b) => order[a.role] - order[b.role])
+}
+
+/** The vehicle as the given member sees it, or null when it does not exist. */
+async function loadDetail(db: DbOrTx, vehicleId: string, myRole: VehicleRole): Promise<VehicleDetail | null> {
+  const [row] = await db
+    .select({ vehicle: vehicles, ...counts })
+    .from(vehicles)
+    .where(eq(vehicles.id, vehicleId))
+    .limit(1)
+  if (!row) return null
+  const [vehicle] = await presentMany(db, [{ ...row, myRole }])
+  return { ...vehicle!, members: await listMembers(db, vehicleId) }
+}
+
+export async function listVehicles(db: Db, actor: Actor, page: PageQuery): Promise<Page<Vehicle>> {
+  const mine = eq(vehicleMemberships.userId, actor.id)
+  const [total] = await db
+    .select({ n: sql<number>`count(*)::int` })
+    .from(vehicleMemberships)
+    .where(mine)
+  const rows = await db
+    .select({ vehicle: vehicles, myRole: vehicleMemberships.role, ...counts })
+    .from(vehicleMemberships)
+    .innerJoin(vehicles, eq(vehicles.id, vehicleMemberships.vehicleId))
+    .where(mine)
+    .orderBy(desc(vehicles.updatedAt), vehicles.id)
+    .limit(page.limit)
+    .offset(page.offset)
+  return { items: await presentMany(db, rows), total: total?.n ?? 0, limit: page.limit, offset: page.offset }
+}
+
+/** Create a vehicle; the creator becomes its owner. */
+export async function createVehicle(db: Db, actor: Actor, input: VehicleCreate): Promise<VehicleDetail> {
+  return db.transaction(async (tx) => {
+    const [v] = await tx
+      .insert(vehicles)
+      .values({ ...input, notes: input.notes ?? '', createdBy: actor.id, updatedBy: actor.id })
+      .returning()
+    await tx
+      .insert(vehicleMemberships)
+      .values({ vehicleId: v!.id, userId: actor.id, role: 'owner', updatedBy: actor.id })
+    await recordHistory(tx, {
+      vehicleId: v!.id,
+      entity: 'vehicle',
+      entityId: v!.id,
+      action: 'create',
+      summary: `Created vehicle ${quoted(v!.name)}`,
+      version: v!.version,
+      after: editableFields(v!),
+      actorId: actor.id,
+    })
+    return (await loadDetail(tx, v!.id, 'owner'))!
+  })
+}
+
+export async function getVehicle(db: Db, actor: Actor, vehicleId: string): Promise<VehicleDetail> {
+  const role = await requireVehicleRole(db, actor.id, vehicleId, 'read')
+  const detail = await loadDetail(db, vehicleId, role)
+  if (!detail) throw notFound('That vehicle')
+  return detail
+}
+
+export async function patchVehicle(
+  db: Db,
+  actor: Actor,
+  vehicleId: string,
+  patch: VehiclePatch,
+): Promise<VehicleDetail> {
+  const role = await requireVehicleRole(db, actor.id, vehicleId, 'write')
+  const { version, ...fields } = patch
+  return db.transaction(async (tx) => {
+    const [before] = await tx.select().from(vehicles).where(eq(vehicles.id, vehicleId)).limit(1)
+    if (!before) throw notFound('That vehicle')
+    const [after] = await tx
+      .update(vehicles)
+      .set({ ...fields, version: sql`${vehicles.version} + 1`, updatedAt: sql`now()`, updatedBy: actor.id })
+      .where(and(eq(vehicles.id, vehicleId), eq(vehicles.version, version)))
+      .returning()
+    if (!after) throw staleVersion('vehicle', await loadDetail(tx, vehicleId, role))
+    await recordHistory(tx, {
+      vehicleId,
+      entity: 'vehicle',
+      entityId: vehicleId,
+      action: 'update',
+      summary: `Changed vehicle ${quoted(after.name)}`,
+      changedFields: changedKeys(editableFields(before), editableFields(after)),
+      version: after.version,
+      before: editableFields(before),
+      after: editableFields(after),
+      actorId: actor.id,
+    })
+    return (await loadDetail(tx, vehicleId, role))!
+  })
+}
+
+/** Owner only. Removes equipment, scenarios and history with it (foreign keys cascade). */
+export async function deleteVehicle(db: Db, actor: Actor, vehicleId: string, version: number): Promise<void> {
+  const role = await requireVehicleRole(db, actor.id, vehicleId, 'owner')
+  await db.transaction(async (tx) => {
+    const gone = await tx
+      .delete(vehicles)
+      .where(and(eq(vehicles.id, vehicleId), eq(vehicles.version, version)))
+      .returning({ id: vehicles.id })
+    if (gone.length === 0) throw staleVersion('vehicle', await loadDetail(tx, vehicleId, role))
+  })
+}
