@@ -22,6 +22,24 @@ export const routes: RouteRecordRaw[] = [
         component: () => import('../pages/ScenariosPage.vue'),
         meta: { title: 'Scenarios' },
       },
+      {
+        path: 'vehicles/:vehicleId',
+        name: 'vehicles.detail',
+        component: () => import('../pages/VehiclePage.vue'),
+        meta: { requiresAuth: true, title: 'Vehicle' },
+      },
+      {
+        path: 'vehicles/:vehicleId/scenarios/new',
+        name: 'scenarios.new',
+        component: () => import('../pages/ScenarioEditPage.vue'),
+        meta: { requiresAuth: true, title: 'New scenario' },
+      },
+      {
+        path: 'scenarios/:scenarioId',
+        name: 'scenarios.edit',
+        component: () => import('../pages/ScenarioEditPage.vue'),
+        meta: { requiresAuth: true, title: 'Scenario' },
+      },
       { path: 'scenarios/:scenarioId/outlook', name: 'outlook', component: () => import('../pages/ScenarioOutlookPage.vue'), meta: { requiresAuth: true, title: 'Outlook' } },
       { path: 'side-by-side', name: 'compare', component: () => import('../pages/ComparePage.vue'), meta: { requiresAuth: true, title: 'Side by side' } },
       {
