@@ -261,3 +261,19 @@ describe('requireMembership (the per-vehicle hook later issues use)', () => {
     )
   })
 })
+
+describe('the local mailbox API (/dev/mailbox)', () => {
+  it('lists the fake SMTP server’s messages in development and test', async () => {
+    const res = await request(app).get('/dev/mailbox/messages').expect(200)
+    expect(Array.isArray(res.body.messages)).toBe(true)
+    await request(app).get('/dev/mailbox/messages/does-not-exist').expect(404)
+  })
+
+  it('is not mounted in production', async () => {
+    const prod = testContext({ NODE_ENV: 'production' })
+    const res = await request(createApp(prod)).get('/dev/mailbox/messages')
+    expect(res.status).toBe(404)
+    expect(res.headers['content-type'] ?? '').not.toMatch(/json/)
+    await prod.pool.end()
+  })
+})
