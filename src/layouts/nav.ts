@@ -31,6 +31,7 @@ export const mainNav: NavItem[] = [
     label: 'Side by side',
     hint: 'Compare scenarios',
   },
+  { name: 'advisors', to: '/advisors', icon: 'support_agent', label: 'Advisors', hint: 'People who review plans' },
   { name: 'reviews', to: '/reviews', icon: 'rate_review', label: 'Reviews', hint: 'Advice on your plans' },
   { name: 'account', to: '/account', icon: 'account_circle', label: 'Account', hint: 'Profile and units' },
   { name: 'admin', to: '/admin/users', icon: 'admin_panel_settings', label: 'People', hint: 'Accounts and roles', role: 'admin' },

@@ -61,6 +61,11 @@ export const routes: RouteRecordRaw[] = [
       { path: 'reset-password', name: 'reset-password', component: () => import('../pages/ResetPasswordPage.vue'), meta: { title: 'New password' } },
       { path: 'admin/users', name: 'admin-users', component: () => import('../pages/AdminUsersPage.vue'), meta: { requiresAuth: true, requiresRole: 'admin', title: 'People' } },
       { path: 'mailbox', name: 'mailbox', component: () => import('../pages/MailboxPage.vue'), meta: { title: 'Local mailbox' } },
+      { path: 'vehicles/:vehicleId/crew', name: 'crew', component: () => import('../pages/CrewPage.vue'), meta: { requiresAuth: true, title: 'Crew' } },
+      { path: 'invitations/:token', name: 'invitation', component: () => import('../pages/InvitationPage.vue'), meta: { title: 'Invitation' } },
+      { path: 'advisors', name: 'advisors', component: () => import('../pages/AdvisorsPage.vue'), meta: { requiresAuth: true, title: 'Advisors' } },
+      { path: 'advisors/me', name: 'advisor-me', component: () => import('../pages/AdvisorProfilePage.vue'), meta: { requiresAuth: true, title: 'My advisor profile' } },
+      { path: 'reviews/:reviewId', name: 'review', component: () => import('../pages/ReviewPage.vue'), meta: { requiresAuth: true, title: 'Review' } },
       {
         path: ':pathMatch(.*)*',
         name: 'not-found',
