@@ -38,7 +38,11 @@ export const sessions = pgTable(
   (t) => [index('sessions_user_idx').on(t.userId)],
 )
 
-export const authTokenPurpose = pgEnum('auth_token_purpose', ['verify_email', 'reset_password', 'change_email'])
+export const authTokenPurpose = pgEnum('auth_token_purpose', [
+  'verify_email',
+  'reset_password',
+  'change_email',
+])
 
 /**
  * Single-use e-mailed tokens (e-mail verification, password reset, e-mail change). Only the SHA-256 hash of
