@@ -98,7 +98,7 @@ export const HeaterSchema = z
 
 export const BatteryBankSchema = z
   .strictObject({
-    chemistry: z.enum(CHEMISTRIES, { error: 'must be one of lfp, agm, gel, flooded' }),
+    chemistry: z.enum(CHEMISTRIES, { error: requiredOr('must be one of lfp, agm, gel, flooded') }),
     /** Cells (or 2 V lead-acid cells / 12 V blocks counted as their cells) in series. */
     cellsSeries: z
       .number({ error: requiredOr('must be a number') })
@@ -204,11 +204,13 @@ export const ApplianceUsageSchema = z.strictObject({
 export const ApplianceSchema = z.strictObject({
   id: id(),
   name: label(),
-  category: z.enum(APPLIANCE_CATEGORIES, { error: `must be one of ${APPLIANCE_CATEGORIES.join(', ')}` }),
+  category: z.enum(APPLIANCE_CATEGORIES, {
+    error: requiredOr(`must be one of ${APPLIANCE_CATEGORIES.join(', ')}`),
+  }),
   /** Power while running. [W] */
   powerW: nonNegative(PLAN_LIMITS.powerWMax),
   /** 'dc' runs from the pack directly; 'ac' runs through the inverter. */
-  supply: z.enum(['dc', 'ac'], { error: 'must be dc or ac' }),
+  supply: z.enum(['dc', 'ac'], { error: requiredOr('must be dc or ac') }),
   quantity: z
     .number({ error: requiredOr('must be a number') })
     .int('must be a whole number')
@@ -242,7 +244,7 @@ export const SolarArraySchema = z.strictObject({
   tiltDeg: finite().min(0, 'must be between 0 and 90').max(90, 'must be between 0 and 90').optional(),
   /** Direction the panel faces, from north clockwise: 90 east, 180 south, 270 west. [°] */
   azimuthDeg: finite().min(0, 'must be between 0 and 360').max(360, 'must be between 0 and 360').optional(),
-  controller: z.enum(['mppt', 'pwm'], { error: 'must be mppt or pwm' }),
+  controller: z.enum(['mppt', 'pwm'], { error: requiredOr('must be mppt or pwm') }),
   /** Controller output current limit at the pack. [A] */
   maxCurrentA: positive(PLAN_LIMITS.currentAMax),
   /** System losses (soiling, wiring, mismatch) before the controller. Default 0.14. [0–1] */
@@ -372,7 +374,7 @@ export const TripSchema = z
   .strictObject({
     /** First day of the trip on the local calendar, YYYY-MM-DD. */
     startDate: z
-      .string()
+      .string({ error: requiredOr('must be text') })
       .regex(/^\d{4}-\d{2}-\d{2}$/, 'must be a date like 2026-01-15')
       .refine(isRealDate, 'is not a real calendar date'),
     days: z
@@ -383,8 +385,10 @@ export const TripSchema = z
     latitudeDeg: finite().min(-90, 'must be between -90 and 90').max(90, 'must be between -90 and 90'),
     longitudeDeg: finite().min(-180, 'must be between -180 and 180').max(180, 'must be between -180 and 180'),
     /** IANA time zone name, e.g. Europe/Oslo. */
-    timeZone: z.string().refine(isValidTimeZone, 'is not a known IANA time zone name (e.g. Europe/Oslo)'),
-    sky: z.enum(SKY_KINDS, { error: 'must be one of clear, mixed, overcast, custom' }),
+    timeZone: z
+      .string({ error: requiredOr('must be text') })
+      .refine(isValidTimeZone, 'is not a known IANA time zone name (e.g. Europe/Oslo)'),
+    sky: z.enum(SKY_KINDS, { error: requiredOr('must be one of clear, mixed, overcast, custom') }),
     /** Daily clearness index (GHI ÷ extraterrestrial horizontal); required when sky is custom. [0–1] */
     clearnessIndexFraction: fraction().optional(),
     /** Coldest hour, near sunrise. [°C] */
@@ -502,6 +506,8 @@ export function parsePlan(input: unknown): ParsePlanResult {
     if (issue.code === 'unrecognized_keys') {
       // Name the unknown field itself, not its parent: a typo (`powerWatts`) should point at itself.
       for (const key of issue.keys) add([...issue.path, key], 'is not a known field')
+    } else if (issue.code === 'invalid_type' && issue.message.endsWith('received undefined')) {
+      add(issue.path, 'is required')
     } else {
       add(issue.path, issue.message)
     }

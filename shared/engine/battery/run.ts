@@ -32,7 +32,7 @@ export interface RunOptions {
   record?: boolean
   /** Run this many hours, repeating the trip's days. Default: the trip. */
   hours?: number
-  /** Stop at the first hour that sheds load for lack of charge (autonomy). */
+  /** Stop at the first hour the pack sheds load: at its floor, its current limit or too cold/hot (autonomy). */
   stopAtFirstShortage?: boolean
 }
 
@@ -100,6 +100,7 @@ export interface RunTotals {
   packLossWh: number
   /** Charge removed from the pack ÷ capacity. */
   equivalentFullCycles: number
+  /** First hour the pack shed load (floor, current limit, or outside its discharge temperature window); -1 if none. */
   firstShortageHour: number
   hoursRun: number
   chargeBlockedColdH: number
@@ -277,7 +278,8 @@ export function runPack(prep: PreparedTrip, opt: RunOptions = {}): RunResult {
   const fuelLPerH = prep.plan.sources.generator.reduce((s, g) => s + g.fuelLPerH, 0)
 
   let stored = startSoc * capWh
-  let packT = prep.ambientC[0]!
+  // The pack starts the trip at the air temperature, or held at its thermostat's off point if it has a pad.
+  let packT = b.heater ? Math.max(prep.ambientC[0]!, b.heater.offAboveC) : prep.ambientC[0]!
   let heaterOn = false
   const t: RunTotals = {
     startStoredWh: stored,
@@ -334,8 +336,10 @@ export function runPack(prep: PreparedTrip, opt: RunOptions = {}): RunResult {
       gen = prep.generatorW[i]!
       srcAvail = sol + dcdc + shore + gen
     }
+    const srcTotal = srcAvail
     let blockedW = 0
     let direct: number
+    let heaterFirst = false
     if ((chargeCold || chargeHot) && srcAvail > 0) {
       // Charge path open: the sources are cut off from the pack and the load bus; their energy is lost to the
       // plan, except what the heater pad takes (pads are fed from the charge side so a cold pack can warm up
@@ -343,6 +347,7 @@ export function runPack(prep: PreparedTrip, opt: RunOptions = {}): RunResult {
       direct = Math.min(srcAvail, heaterW)
       blockedW = srcAvail - direct
       srcAvail = direct
+      heaterFirst = true
     } else {
       direct = Math.min(srcAvail, demand)
     }
@@ -375,19 +380,27 @@ export function runPack(prep: PreparedTrip, opt: RunOptions = {}): RunResult {
     }
     if (stored < 0) stored = 0 // numerical guard; the floor check above keeps it ≥ floor
     const unserved = deficit - out
-    const servedFraction = demand > 0 ? (direct + out) / demand : 1
-    if (servedFraction < 1 && heaterW > 0) {
+    // Who got what: normally the bus shares direct supply and pack output in proportion to demand; while the
+    // charge path is open the sources' share went to the heater pad first.
+    const restFraction = deficit > 0 ? out / deficit : 1
+    const heaterServedW = heaterFirst
+      ? direct + (heaterW - direct) * restFraction
+      : demand > 0
+        ? (heaterW * (direct + out)) / demand
+        : heaterW
+    const otherFraction = heaterFirst ? restFraction : demand > 0 ? (direct + out) / demand : 1
+    if (heaterServedW < heaterW - 1e-12) {
       // The pad got only part of its power: redo the thermal step with what it really got.
       stepPackTemperatureInto(
         th,
-        { ...thermal, heaterPowerW: thermal.heaterPowerW * servedFraction },
+        { ...thermal, heaterPowerW: (thermal.heaterPowerW * heaterServedW) / heaterW },
         t0,
         heaterOn,
         ambient,
         1,
       )
     }
-    heaterW *= servedFraction
+    heaterW = heaterServedW
     packT = th.endTempC
     heaterOn = th.heaterOnEnd
 
@@ -412,7 +425,7 @@ export function runPack(prep: PreparedTrip, opt: RunOptions = {}): RunResult {
       t.lowestSocHour = h
     }
     t.hoursRun = h + 1
-    if (shortage > 1e-9 && t.firstShortageHour < 0) {
+    if ((shortage > 1e-9 || dischargeBlocked > 1e-9) && t.firstShortageHour < 0) {
       t.firstShortageHour = h
       if (opt.stopAtFirstShortage) break
     }
@@ -420,13 +433,13 @@ export function runPack(prep: PreparedTrip, opt: RunOptions = {}): RunResult {
     if (rec && h < n) {
       rec.soc[i] = soc
       rec.packT[i] = t0
-      const share = srcAvail > 0 ? used / srcAvail : 0
+      const share = srcTotal > 0 ? used / srcTotal : 0
       rec.source[i] = sol * share
       rec.source[n + i] = dcdc * share
       rec.source[2 * n + i] = shore * share
       rec.source[3 * n + i] = gen * share
       const base = hod * NCAT
-      for (let c = 0; c < NCAT; c++) rec.load[c * n + i] = prep.demandByCategoryW[base + c]! * servedFraction
+      for (let c = 0; c < NCAT; c++) rec.load[c * n + i] = prep.demandByCategoryW[base + c]! * otherFraction
       rec.load[HEATER * n + i] = heaterW
       rec.unserved[i] = unserved + overload
       rec.curtailed[i] = curtailed
