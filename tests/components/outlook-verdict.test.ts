@@ -1,0 +1,133 @@
+// @vitest-environment happy-dom
+import { describe, expect, it, beforeEach } from 'vitest'
+import { mount } from '@vue/test-utils'
+import { Quasar } from 'quasar'
+import { createPinia, setActivePinia, type Pinia } from 'pinia'
+import { readFileSync } from 'node:fs'
+import { join } from 'node:path'
+import OutlookVerdict from '../../src/components/outlook/OutlookVerdict.vue'
+import OutlookFigures from '../../src/components/outlook/OutlookFigures.vue'
+import { verdictView, type VerdictInput } from '../../src/components/outlook/verdict'
+import { applyWhatIf, whatIfBase } from '../../src/components/outlook/whatIf'
+import { compareRows } from '../../src/components/outlook/compare'
+import { analysePlan, parsePlan, resultsToJson, simulate, type Plan } from '../../shared/engine/index'
+
+function example(name: string): Plan {
+  // happy-dom replaces import.meta.url; the tests run from the project root.
+  const path = join(process.cwd(), 'data', 'examples', `${name}.json`)
+  const r = parsePlan(JSON.parse(readFileSync(path, 'utf8')))
+  if (!r.ok) throw new Error(JSON.stringify(r.fields))
+  return r.plan
+}
+
+/** A hand-made result: 200 Ah at 12.8 V, floor 10 %. */
+function made(over: Partial<{ status: 'carries' | 'tight' | 'short'; lowest: number; lowestHour: number; first: number; unserved: number }>): VerdictInput {
+  const lowest = over.lowest ?? 0.33
+  const status = over.status ?? 'carries'
+  return {
+    verdict: { status, marginFraction: lowest - 0.1, marginWh: (lowest - 0.1) * 2560, message: '' },
+    summary: {
+      lowestSocFraction: lowest,
+      lowestSocHour: over.lowestHour ?? 77,
+      finalSocFraction: 0.8,
+      startSocFraction: 0.9,
+      unservedWh: over.unserved ?? 0,
+      shortageWh: over.unserved ?? 0,
+    },
+    totals: { firstShortageHour: over.first ?? -1 },
+    plan: { battery: { socFloorFraction: 0.1 } },
+  }
+}
+
+let pinia: Pinia
+beforeEach(() => {
+  pinia = createPinia()
+  setActivePinia(pinia)
+})
+
+describe('the verdict', () => {
+  it('answers first, in words, with the margin: carries', () => {
+    const v = verdictView(made({ lowest: 0.33, lowestHour: 77 }))
+    expect(v.headline).toBe('Carries the trip with 23 % to spare')
+    // Hour 77 ends at 06:00 of day 4.
+    expect(v.detail).toBe('Lowest charge 33 % on day 4 at 06:00; the floor you set is 10 %.')
+    expect(v.margin).toBe('23 % of the pack (589 Wh) stays above the floor at the lowest point.')
+    expect(v.tone).toBe('positive')
+  })
+
+  it('says when a carried trip is tight, and when and how a short one runs out', () => {
+    expect(verdictView(made({ status: 'tight', lowest: 0.16 })).headline).toBe('Carries the trip, but only 6 % to spare')
+    const short = verdictView(made({ status: 'short', lowest: 0.1, first: 77, unserved: 1234 }))
+    expect(short.headline).toBe('Runs short on day 4 at 05:00')
+    expect(short.margin).toBe('1.2 kWh of loads would go unserved over the trip.')
+    expect(short.tone).toBe('negative')
+    // Shed only through the inverter rating: there is no first hour at the floor.
+    expect(verdictView(made({ status: 'short', first: -1, unserved: 50 })).headline).toBe('Cannot serve every load on this trip')
+  })
+
+  it('renders with an icon and words, not colour alone, and marks an unsaved change', () => {
+    const w = mount(OutlookVerdict, {
+      props: { result: made({ status: 'short', lowest: 0.1, first: 50, unserved: 400 }), trying: true },
+      global: { plugins: [[Quasar, {}], pinia] },
+    })
+    expect(w.get('[data-test="verdict"]').attributes('data-status')).toBe('short')
+    expect(w.get('h2').text()).toBe('Runs short on day 3 at 02:00')
+    expect(w.text()).toContain('with your change, not saved')
+    expect(w.find('.q-icon').text()).toBe('battery_alert')
+  })
+
+  it('flips from short to carries on the real engine when the winter van gets a bigger pack', () => {
+    const plan = example('winter-week-lofoten')
+    const base = resultsToJson(simulate(plan))
+    expect(base.verdict.status).toBe('short')
+    expect(verdictView(base).headline).toMatch(/^Runs short on day \d at \d\d:00$/)
+    const bigger = resultsToJson(simulate(applyWhatIf(plan, { capacityAh: 300 })))
+    expect(bigger.plan.battery.capacityAh).toBe(300)
+    expect(bigger.verdict.status).not.toBe('short')
+    expect(verdictView(bigger).headline).toMatch(/^Carries the trip/)
+    // The stored plan is untouched by a what-if.
+    expect(whatIfBase(plan).capacityAh).toBe(200)
+  })
+})
+
+describe('the key figures', () => {
+  it('shows every figure with its unit, in °F for an imperial user, with the cold-charging caution', () => {
+    const plan = example('winter-week-lofoten')
+    const analysis = resultsToJson(analysePlan(plan))
+    const w = mount(OutlookFigures, {
+      props: {
+        result: analysis,
+        analysis,
+        stale: false,
+        progress: null,
+        analysisError: null,
+        prefs: { unitSystem: 'imperial', temperatureUnit: 'F' },
+      },
+      global: { plugins: [[Quasar, {}], pinia] },
+    })
+    expect(w.get('[data-test="figure-autonomy"]').text()).toMatch(/\d(\.\d)? days?/)
+    expect(w.get('[data-test="figure-pack-needed"]').text()).toMatch(new RegExp(`${analysis.packNeeded.capacityAh} Ah`))
+    expect(w.get('[data-test="figure-pack-needed"]').text()).toContain('Yours: 200 Ah at 12.8 V')
+    expect(w.get('[data-test="figure-solar-needed"]').text()).toContain('400 Wp')
+    expect(w.get('[data-test="figure-classic"]').text()).toMatch(/\d+ Ah\s*classic sizing/)
+    expect(w.get('[data-test="classic-sentence"]').text().length).toBeGreaterThan(40)
+    const cold = w.get('[data-test="figure-cold"]').text()
+    expect(cold).toMatch(/\d+ Wh/)
+    expect(cold).toContain('32 °F') // LFP charge minimum 0 °C shown in °F
+    expect(cold).not.toContain('°C')
+    expect(w.get('[data-test="cold-caution"]').text()).toContain('must not be charged below freezing (32 °F)')
+  })
+
+  it('marks the better value in Side by side, and leaves unranked rows unmarked', () => {
+    const winter = resultsToJson(analysePlan(example('winter-week-lofoten')))
+    const summer = resultsToJson(analysePlan(example('summer-month-andalusia')))
+    const rows = compareRows([winter, summer])
+    const lowest = rows.find((r) => r.key === 'lowest')!
+    expect(lowest.best).toEqual([winter.summary.lowestSocFraction > summer.summary.lowestSocFraction ? 0 : 1])
+    expect(lowest.texts.every((t) => / %$/.test(t))).toBe(true)
+    const heater = rows.find((r) => r.key === 'heater')!
+    expect(heater.best).toEqual([1]) // the summer trip needs no heater
+    expect(rows.find((r) => r.key === 'days')!.best).toEqual([])
+    expect(rows.find((r) => r.key === 'verdict')!.texts[0]).toMatch(/^Runs short/)
+  })
+})
