@@ -12,6 +12,7 @@ import { crewRouter } from '../modules/crew/routes'
 import { advisorsRouter } from '../modules/advisors/routes'
 import { reviewsRouter } from '../modules/reviews/routes'
 import { paymentsWebhookRouter } from '../modules/payments/webhook'
+import { logsRouter } from '../modules/logs/logs.routes'
 
 /**
  * Every API area, mounted under /api. One line per area: keep edits here to a single line each.
@@ -32,5 +33,6 @@ export function apiRouter(ctx: AppContext): Router {
   api.use('/reviews', reviewsRouter(ctx))
   api.use('/vehicles', buildSheetRouter(ctx))
   api.use('/', crewRouter(ctx))
+  api.use('/', logsRouter(ctx))
   return api
 }
