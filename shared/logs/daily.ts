@@ -72,13 +72,20 @@ export class DailySummarizer {
     this.maxGapMs = maxGapMinutes * 60_000
   }
 
+  /** The day of the last lookup and the instants it spans, so most samples skip the date formatting. */
+  private cache: { acc: DayAcc; fromMs: number; toMs: number } | null = null
+
   private day(tsMs: number): DayAcc {
+    const c = this.cache
+    if (c && tsMs >= c.fromMs && tsMs < c.toMs) return c.acc
     const date = localDate(tsMs, this.utcOffsetMinutes)
     let d = this.days.get(date)
     if (!d) {
       d = newDay(date)
       this.days.set(date, d)
     }
+    const toMs = nextLocalMidnightMs(tsMs, this.utcOffsetMinutes)
+    this.cache = { acc: d, fromMs: toMs - 86_400_000, toMs }
     return d
   }
 

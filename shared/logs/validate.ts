@@ -115,60 +115,36 @@ export class LogRowValidator {
       })
       return { sample: null, errors }
     }
-    const d = m.format.decimalSeparator
-    const name = (i: number) => this.columns[i]!
-
-    const num = (i: number, required: boolean, what: string): number | null => {
-      const text = cells[i]!
-      const v = parseNumber(text, d)
-      if (v === null) {
-        if (required)
-          errors.push({ row, column: name(i), code: 'missing_value', message: `The ${what} is empty.` })
-        return null
-      }
-      if (!Number.isFinite(v)) {
-        const hint =
-          d === '.' && /^[+-]?\d+,\d+$/.test(text.trim())
-            ? ' It uses a decimal comma: choose “,” as the decimal mark.'
-            : ''
-        errors.push({
-          row,
-          column: name(i),
-          code: 'not_a_number',
-          message: `“${text.slice(0, 40)}” is not a number (${what}).${hint}`,
-        })
-        return null
-      }
-      return v
-    }
-    const impossible = (i: number, message: string) =>
-      errors.push({ row, column: name(i), code: 'impossible_value', message })
-
     // Time
     const tsText = cells[this.index.ts]!
     let tsMs: number | null = null
     if (tsText.trim() === '') {
-      errors.push({ row, column: name(this.index.ts), code: 'missing_value', message: 'The time is empty.' })
+      errors.push({
+        row,
+        column: this.columns[this.index.ts]!,
+        code: 'missing_value',
+        message: 'The time is empty.',
+      })
     } else {
       tsMs = parseTimestampMs(tsText, m.timestampFormat, m.utcOffsetMinutes)
       if (tsMs === null) {
         errors.push({
           row,
-          column: name(this.index.ts),
+          column: this.columns[this.index.ts]!,
           code: 'bad_timestamp',
           message: `“${tsText.slice(0, 40)}” is not a time in the chosen format (${m.timestampFormat}).`,
         })
       } else if (tsMs === this.lastTsMs) {
         errors.push({
           row,
-          column: name(this.index.ts),
+          column: this.columns[this.index.ts]!,
           code: 'timestamp_duplicate',
           message: `Row ${row} has the same time as row ${this.lastRow} (${tsText.trim()}).`,
         })
       } else if (tsMs < this.lastTsMs) {
         errors.push({
           row,
-          column: name(this.index.ts),
+          column: this.columns[this.index.ts]!,
           code: 'timestamp_out_of_order',
           message: `Row ${row} (${tsText.trim()}) is earlier than row ${this.lastRow}; rows must run forward in time.`,
         })
@@ -176,7 +152,7 @@ export class LogRowValidator {
         const gapMin = (tsMs - this.lastTsMs) / 60_000
         errors.push({
           row,
-          column: name(this.index.ts),
+          column: this.columns[this.index.ts]!,
           code: 'gap',
           message: `No samples for ${gapMin >= 120 ? `${fmt(gapMin / 60)} h` : `${fmt(gapMin)} min`} between row ${this.lastRow} and row ${row} (allowed: ${m.maxGapMinutes} min). If the monitor was off, raise the allowed gap.`,
         })
@@ -188,12 +164,14 @@ export class LogRowValidator {
     }
 
     // Current, positive into the pack
-    let currentA = num(this.index.current, true, 'current')
+    let currentA = this.num(cells, row, errors, this.index.current, true, 'current')
     if (currentA !== null) {
       if (m.currentUnit === 'mA') currentA /= 1000
       if (m.currentSign === 'discharge-positive') currentA = -currentA
       if (Math.abs(currentA) > LOG_LIMITS.currentAbsAMax) {
-        impossible(
+        this.impossible(
+          errors,
+          row,
           this.index.current,
           `A current of ${fmt(currentA)} A is not possible here (limit ±${LOG_LIMITS.currentAbsAMax} A). Is the column in milliamps?`,
         )
@@ -205,11 +183,13 @@ export class LogRowValidator {
     if (this.index.cells.length) {
       const values: number[] = []
       for (const [k, i] of this.index.cells.entries()) {
-        let v = num(i, false, `cell ${k + 1} voltage`)
+        let v = this.num(cells, row, errors, i, false, `cell ${k + 1} voltage`)
         if (v === null) continue
         if (m.cellVoltageUnit === 'mV') v /= 1000
         if (v < LOG_LIMITS.cellVoltageVMin || v > LOG_LIMITS.cellVoltageVMax) {
-          impossible(
+          this.impossible(
+            errors,
+            row,
             i,
             `A cell voltage of ${fmt(v)} V is not possible (${LOG_LIMITS.cellVoltageVMin}–${LOG_LIMITS.cellVoltageVMax} V).${v > LOG_LIMITS.cellVoltageVMax ? ' Is the column in millivolts?' : ''}`,
           )
@@ -223,11 +203,13 @@ export class LogRowValidator {
     // Pack voltage (or the sum of the cells)
     let packVoltageV: number | null = null
     if (this.index.volt !== null) {
-      packVoltageV = num(this.index.volt, true, 'pack voltage')
+      packVoltageV = this.num(cells, row, errors, this.index.volt, true, 'pack voltage')
       if (packVoltageV !== null) {
         if (m.packVoltageUnit === 'mV') packVoltageV /= 1000
         if (packVoltageV <= 0 || packVoltageV > LOG_LIMITS.packVoltageVMax) {
-          impossible(
+          this.impossible(
+            errors,
+            row,
             this.index.volt,
             `A pack voltage of ${fmt(packVoltageV)} V is not possible for a 12–48 V pack (0–${LOG_LIMITS.packVoltageVMax} V).${packVoltageV > LOG_LIMITS.packVoltageVMax ? ' Is the column in millivolts?' : ''}`,
           )
@@ -248,11 +230,13 @@ export class LogRowValidator {
     // State of charge
     let socFraction: number | null = null
     if (this.index.soc !== null) {
-      const v = num(this.index.soc, false, 'state of charge')
+      const v = this.num(cells, row, errors, this.index.soc, false, 'state of charge')
       if (v !== null) {
         socFraction = m.socUnit === 'percent' ? v / 100 : v
         if (socFraction < 0 || socFraction > 1) {
-          impossible(
+          this.impossible(
+            errors,
+            row,
             this.index.soc,
             `A state of charge of ${m.socUnit === 'percent' ? `${fmt(v)} %` : fmt(v)} is not possible (0–${m.socUnit === 'percent' ? '100 %' : '1'}).`,
           )
@@ -266,11 +250,13 @@ export class LogRowValidator {
     if (this.index.temps.length) {
       const values: number[] = []
       for (const i of this.index.temps) {
-        let v = num(i, false, 'temperature')
+        let v = this.num(cells, row, errors, i, false, 'temperature')
         if (v === null) continue
         if (m.temperatureUnit === 'F') v = ((v - 32) * 5) / 9
         if (v < LOG_LIMITS.temperatureCMin || v > LOG_LIMITS.temperatureCMax) {
-          impossible(
+          this.impossible(
+            errors,
+            row,
             i,
             `A temperature of ${fmt(v)} °C is not possible here (${LOG_LIMITS.temperatureCMin} to ${LOG_LIMITS.temperatureCMax} °C).`,
           )
@@ -284,6 +270,47 @@ export class LogRowValidator {
     if (errors.length || tsMs === null || currentA === null || packVoltageV === null)
       return { sample: null, errors }
     return { sample: { tsMs, packVoltageV, currentA, socFraction, temperaturesC, cellVoltagesV }, errors }
+  }
+
+  private impossible(errors: LogError[], row: number, i: number, message: string): void {
+    errors.push({ row, column: this.columns[i]!, code: 'impossible_value', message })
+  }
+
+  private num(
+    cells: readonly string[],
+    row: number,
+    errors: LogError[],
+    i: number,
+    required: boolean,
+    what: string,
+  ): number | null {
+    const text = cells[i]!
+    const d = this.mapping.format.decimalSeparator
+    const v = parseNumber(text, d)
+    if (v === null) {
+      if (required)
+        errors.push({
+          row,
+          column: this.columns[i]!,
+          code: 'missing_value',
+          message: `The ${what} is empty.`,
+        })
+      return null
+    }
+    if (!Number.isFinite(v)) {
+      const hint =
+        d === '.' && /^[+-]?\d+,\d+$/.test(text.trim())
+          ? ' It uses a decimal comma: choose “,” as the decimal mark.'
+          : ''
+      errors.push({
+        row,
+        column: this.columns[i]!,
+        code: 'not_a_number',
+        message: `“${text.slice(0, 40)}” is not a number (${what}).${hint}`,
+      })
+      return null
+    }
+    return v
   }
 }
 

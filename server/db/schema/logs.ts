@@ -1,4 +1,16 @@
-import { date, doublePrecision, index, integer, jsonb, pgTable, primaryKey, real, text, timestamp, uuid } from 'drizzle-orm/pg-core'
+import {
+  date,
+  doublePrecision,
+  index,
+  integer,
+  jsonb,
+  pgTable,
+  primaryKey,
+  real,
+  text,
+  timestamp,
+  uuid,
+} from 'drizzle-orm/pg-core'
 import type { LogMapping } from '../../../shared/logs/types'
 import type { SpreadTrend } from '../../../shared/logs/trend'
 import { users } from './auth'

@@ -1,0 +1,440 @@
+/**
+ * Logs (issue 9): preview an uploaded battery-monitor CSV, import it in one transaction, list uploads,
+ * daily summaries, measured vs planned, and a calibrated copy of a scenario. Routes: logs.routes.ts.
+ */
+import { rm, stat } from 'node:fs/promises'
+import { desc, eq, sql } from 'drizzle-orm'
+import type pg from 'pg'
+import type {
+  LogCalibrateAnswer,
+  LogCompareAnswer,
+  LogDaysAnswer,
+  LogPreview,
+  LogUpload,
+} from '../../../shared/logs/api'
+import { calibrateUsage } from '../../../shared/logs/calibrate'
+import {
+  compareWithPlan,
+  plannedPackDays,
+  type Comparison,
+  type PlannedDay,
+} from '../../../shared/logs/compare'
+import { detectShape } from '../../../shared/logs/detect'
+import { completeMapping, proposeMapping } from '../../../shared/logs/mapping'
+import { cellSpreadTrend } from '../../../shared/logs/trend'
+import { LOG_LIMITS, type LogDay, type LogMapping, type LogSample } from '../../../shared/logs/types'
+import { simulate } from '../../../shared/engine/simulate'
+import type { AppContext } from '../../context'
+import type { Db } from '../../db/client'
+import { logDays, logMappings, logUploads } from '../../db/schema/index'
+import { HttpError, badRequest, notFound } from '../../errors'
+import { buildPlanForScenario } from '../scenarios/plan'
+import {
+  duplicateScenario,
+  loadScenarioForUser,
+  loadUsage,
+  patchScenario,
+  deleteScenario,
+} from '../scenarios/scenarios.service'
+import { isId, requireVehicleRole } from '../vehicles/access'
+import { loadApplianceRows } from '../vehicles/appliances.service'
+import { userRefs, type Actor } from '../vehicles/records'
+import { readHead } from './csv'
+import { loadPending, pendingFile, removePending, savePending, sweepPending } from './pending'
+import { scanLog, type ScanResult } from './scan'
+
+const iso = (ms: number | null) => (ms === null ? null : new Date(ms).toISOString())
+
+export const importInvalid = (scan: ScanResult) =>
+  new HttpError(
+    400,
+    'import_invalid',
+    scan.errorCount === 1
+      ? 'The file has 1 problem. Nothing was stored.'
+      : `The file has ${scan.errorCount.toLocaleString('en')} problems. Nothing was stored.`,
+    undefined,
+    { errors: scan.errors, errorCount: scan.errorCount },
+  )
+
+function checkOf(scan: ScanResult) {
+  return {
+    rowCount: scan.rowCount,
+    errors: scan.errors,
+    errorCount: scan.errorCount,
+    firstTs: iso(scan.firstTsMs),
+    lastTs: iso(scan.lastTsMs),
+  }
+}
+
+/**
+ * Step 1: the file is already on disk (multer). Detect its shape from the first 64 kB, propose a mapping
+ * (the vehicle's remembered one when it fits) and check the whole file against it, streaming.
+ */
+export async function previewUpload(
+  db: Db,
+  actor: Actor,
+  vehicleId: string,
+  file: { path: string; originalName: string; sizeBytes: number; uploadId: string },
+): Promise<LogPreview> {
+  void sweepPending()
+  const head = await readHead(file.path)
+  const fail = async (code: string, message: string) => {
+    await rm(file.path, { force: true })
+    return new HttpError(400, code, message)
+  }
+  if (file.sizeBytes === 0 || head.text.trim() === '') throw await fail('empty_file', 'The file is empty.')
+  if (head.binary) {
+    throw await fail(
+      'not_text',
+      'This is not a text CSV file (it looks like a spreadsheet or another binary file). Export the log as CSV and upload that.',
+    )
+  }
+  const shape = detectShape(head.text, head.complete)
+  if (!shape) throw await fail('empty_file', 'The file has no rows.')
+  const [remembered] = await db
+    .select({ mapping: logMappings.mapping })
+    .from(logMappings)
+    .where(eq(logMappings.vehicleId, vehicleId))
+  const proposal = proposeMapping(shape, remembered?.mapping ?? null)
+  const complete = completeMapping(proposal.mapping)
+  const check = complete.ok ? checkOf(await scanLog(file.path, complete.mapping)) : null
+  await savePending({
+    uploadId: file.uploadId,
+    vehicleId,
+    userId: actor.id,
+    fileName: file.originalName,
+    sizeBytes: file.sizeBytes,
+    createdAt: new Date().toISOString(),
+  })
+  const first = shape.format.hasHeader ? 2 : 1
+  return {
+    uploadId: file.uploadId,
+    fileName: file.originalName,
+    sizeBytes: file.sizeBytes,
+    detected: shape.format,
+    columns: shape.columns,
+    notes: shape.notes,
+    proposal: {
+      ...proposal,
+      source: proposal.reasons.timestampColumn?.startsWith('Same columns') ? 'remembered' : 'detected',
+    },
+    rows: shape.rows.slice(0, LOG_LIMITS.previewRows).map((cells, i) => ({ row: first + i, cells })),
+    check,
+  }
+}
+
+async function pendingFor(actor: Actor, vehicleId: string, uploadId: string) {
+  const p = await loadPending(uploadId)
+  if (!p || p.vehicleId !== vehicleId || p.userId !== actor.id) {
+    throw notFound('That upload (it may have expired: upload the file again)')
+  }
+  try {
+    await stat(pendingFile(uploadId))
+  } catch {
+    throw notFound('That upload (it may have expired: upload the file again)')
+  }
+  return p
+}
+
+/** Check the pending file against a corrected mapping (nothing is stored). */
+export async function checkUpload(actor: Actor, vehicleId: string, uploadId: string, mapping: LogMapping) {
+  await pendingFor(actor, vehicleId, uploadId)
+  return checkOf(await scanLog(pendingFile(uploadId), mapping))
+}
+
+const BATCH_ROWS = 5_000
+
+const INSERT_SAMPLES = `
+INSERT INTO log_samples (upload_id, ts, pack_voltage_v, current_a, soc_fraction, temperatures_c, cell_voltages_v)
+SELECT $1::uuid, to_timestamp(u.t / 1000.0), u.v, u.i, u.s, u.tc::real[], u.cv::real[]
+FROM unnest($2::float8[], $3::real[], $4::real[], $5::real[], $6::text[], $7::text[]) AS u(t, v, i, s, tc, cv)`
+
+/** Column-wise buffers of samples, sent as one INSERT … SELECT FROM unnest(arrays) per batch. */
+class SampleBatch {
+  t: number[] = []
+  v: number[] = []
+  i: number[] = []
+  s: (number | null)[] = []
+  tc: (string | null)[] = []
+  cv: (string | null)[] = []
+  push(x: LogSample): void {
+    this.t.push(x.tsMs)
+    this.v.push(x.packVoltageV)
+    this.i.push(x.currentA)
+    this.s.push(x.socFraction)
+    this.tc.push(x.temperaturesC ? `{${x.temperaturesC.join(',')}}` : null)
+    this.cv.push(x.cellVoltagesV ? `{${x.cellVoltagesV.join(',')}}` : null)
+  }
+  get size(): number {
+    return this.t.length
+  }
+  async flush(client: pg.PoolClient, uploadId: string): Promise<void> {
+    if (this.size === 0) return
+    await client.query(INSERT_SAMPLES, [uploadId, this.t, this.v, this.i, this.s, this.tc, this.cv])
+    this.t = []
+    this.v = []
+    this.i = []
+    this.s = []
+    this.tc = []
+    this.cv = []
+  }
+}
+
+const INSERT_DAYS = `
+INSERT INTO log_days (upload_id, date, sample_count, covered_h, energy_in_wh, energy_out_wh, soc_min_fraction,
+  soc_max_fraction, pack_voltage_min_v, pack_voltage_max_v, cell_spread_max_mv, cell_spread_typical_mv,
+  cell_spread_p95_mv, temperature_min_c, temperature_max_c)
+SELECT $1::uuid, d.date, d."sampleCount", d."coveredH", d."energyInWh", d."energyOutWh", d."socMinFraction",
+  d."socMaxFraction", d."packVoltageMinV", d."packVoltageMaxV", d."cellSpreadMaxMv", d."cellSpreadTypicalMv",
+  d."cellSpreadP95Mv", d."temperatureMinC", d."temperatureMaxC"
+FROM jsonb_to_recordset($2::jsonb) AS d(date date, "sampleCount" int, "coveredH" float8, "energyInWh" float8,
+  "energyOutWh" float8, "socMinFraction" float8, "socMaxFraction" float8, "packVoltageMinV" float8,
+  "packVoltageMaxV" float8, "cellSpreadMaxMv" float8, "cellSpreadTypicalMv" float8, "cellSpreadP95Mv" float8,
+  "temperatureMinC" float8, "temperatureMaxC" float8)`
+
+/**
+ * Step 2: stream the pending file again, check every row, and insert samples in batches inside ONE
+ * transaction. Any problem rolls everything back: nothing is stored and the answer lists the problems.
+ */
+export async function importUpload(
+  ctx: AppContext,
+  actor: Actor,
+  vehicleId: string,
+  uploadId: string,
+  mapping: LogMapping,
+): Promise<LogUpload> {
+  const pending = await pendingFor(actor, vehicleId, uploadId)
+  const client = await ctx.pool.connect()
+  let scan: ScanResult
+  try {
+    await client.query('BEGIN')
+    await client.query(
+      `INSERT INTO log_uploads (id, vehicle_id, file_name, size_bytes, row_count, first_ts, last_ts, mapping, spread_trend, created_by)
+       VALUES ($1, $2, $3, $4, 0, now(), now(), $5, '{}'::jsonb, $6)`,
+      [
+        uploadId,
+        vehicleId,
+        pending.fileName.slice(0, 200),
+        pending.sizeBytes,
+        JSON.stringify(mapping),
+        actor.id,
+      ],
+    )
+    const batch = new SampleBatch()
+    scan = await scanLog(pendingFile(uploadId), mapping, {
+      summarise: true,
+      onSample: async (s) => {
+        batch.push(s)
+        if (batch.size >= BATCH_ROWS) await batch.flush(client, uploadId)
+      },
+    })
+    if (scan.errorCount > 0 || scan.rowCount === 0) {
+      await client.query('ROLLBACK')
+      throw importInvalid(scan)
+    }
+    await batch.flush(client, uploadId)
+    await client.query(INSERT_DAYS, [uploadId, JSON.stringify(scan.days)])
+    await client.query(
+      `UPDATE log_uploads SET row_count = $2, first_ts = $3, last_ts = $4, spread_trend = $5 WHERE id = $1`,
+      [
+        uploadId,
+        scan.rowCount,
+        iso(scan.firstTsMs),
+        iso(scan.lastTsMs),
+        JSON.stringify(cellSpreadTrend(scan.days)),
+      ],
+    )
+    await client.query(
+      `INSERT INTO log_mappings (vehicle_id, mapping, updated_at, updated_by) VALUES ($1, $2, now(), $3)
+       ON CONFLICT (vehicle_id) DO UPDATE SET mapping = EXCLUDED.mapping, updated_at = now(), updated_by = EXCLUDED.updated_by`,
+      [vehicleId, JSON.stringify(mapping), actor.id],
+    )
+    await client.query('COMMIT')
+  } catch (err) {
+    await client.query('ROLLBACK').catch(() => {})
+    throw err
+  } finally {
+    client.release()
+  }
+  await removePending(uploadId)
+  return getUpload(ctx.db, actor, uploadId, 'read')
+}
+
+type UploadRow = typeof logUploads.$inferSelect
+
+async function present(db: Db, rows: UploadRow[]): Promise<LogUpload[]> {
+  const refs = await userRefs(
+    db,
+    rows.map((r) => r.createdBy),
+  )
+  const counts = rows.length
+    ? await db
+        .select({ uploadId: logDays.uploadId, n: sql<number>`count(*)::int` })
+        .from(logDays)
+        .where(sql`${logDays.uploadId} IN ${rows.map((r) => r.id)}`)
+        .groupBy(logDays.uploadId)
+    : []
+  const dayCount = new Map(counts.map((c) => [c.uploadId, c.n]))
+  return rows.map((r) => ({
+    id: r.id,
+    vehicleId: r.vehicleId,
+    fileName: r.fileName,
+    sizeBytes: r.sizeBytes,
+    rowCount: r.rowCount,
+    firstTs: r.firstTs.toISOString(),
+    lastTs: r.lastTs.toISOString(),
+    dayCount: dayCount.get(r.id) ?? 0,
+    mapping: r.mapping,
+    spreadTrend: r.spreadTrend,
+    createdAt: r.createdAt.toISOString(),
+    createdBy: r.createdBy ? (refs.get(r.createdBy) ?? null) : null,
+  }))
+}
+
+export async function listUploads(db: Db, actor: Actor, vehicleId: string): Promise<{ items: LogUpload[] }> {
+  await requireVehicleRole(db, actor.id, vehicleId, 'read')
+  const rows = await db
+    .select()
+    .from(logUploads)
+    .where(eq(logUploads.vehicleId, vehicleId))
+    .orderBy(desc(logUploads.createdAt))
+    .limit(100)
+  return { items: await present(db, rows) }
+}
+
+/** The upload, if the user's role on its vehicle allows `need` (404 otherwise, like a missing one). */
+async function loadUpload(
+  db: Db,
+  actor: Actor,
+  uploadId: string,
+  need: 'read' | 'write',
+): Promise<UploadRow> {
+  if (!isId(uploadId)) throw notFound('That log')
+  const [row] = await db.select().from(logUploads).where(eq(logUploads.id, uploadId)).limit(1)
+  if (!row) throw notFound('That log')
+  try {
+    await requireVehicleRole(db, actor.id, row.vehicleId, need)
+  } catch (err) {
+    if ((err as { status?: number }).status === 404) throw notFound('That log')
+    throw err
+  }
+  return row
+}
+
+export async function getUpload(
+  db: Db,
+  actor: Actor,
+  uploadId: string,
+  need: 'read' | 'write',
+): Promise<LogUpload> {
+  const [u] = await present(db, [await loadUpload(db, actor, uploadId, need)])
+  return u!
+}
+
+async function loadDays(db: Db, uploadId: string): Promise<LogDay[]> {
+  const rows = await db.select().from(logDays).where(eq(logDays.uploadId, uploadId)).orderBy(logDays.date)
+  return rows.map(({ uploadId: _u, ...d }) => d)
+}
+
+export async function uploadDays(db: Db, actor: Actor, uploadId: string): Promise<LogDaysAnswer> {
+  const upload = await getUpload(db, actor, uploadId, 'read')
+  return { upload, days: await loadDays(db, uploadId) }
+}
+
+export async function deleteUpload(db: Db, actor: Actor, uploadId: string): Promise<void> {
+  const row = await loadUpload(db, actor, uploadId, 'write')
+  await db.delete(logUploads).where(eq(logUploads.id, row.id))
+}
+
+async function comparison(
+  db: Db,
+  actor: Actor,
+  upload: UploadRow,
+  scenarioId: string,
+  need: 'read' | 'write',
+): Promise<{
+  comparison: Comparison
+  planDays: PlannedDay[]
+  scenario: { id: string; name: string; vehicleId: string }
+}> {
+  const { row: scenario } = await loadScenarioForUser(db, actor.id, scenarioId, need)
+  if (scenario.vehicleId !== upload.vehicleId) {
+    throw badRequest('Pick a scenario of the same vehicle as the log.', {
+      scenarioId: ['belongs to another vehicle'],
+    })
+  }
+  const plan = await buildPlanForScenario(db, scenario.id)
+  const planDays = plannedPackDays(simulate(plan))
+  const days = await loadDays(db, upload.id)
+  return {
+    comparison: compareWithPlan(days, planDays),
+    planDays,
+    scenario: { id: scenario.id, name: scenario.name, vehicleId: scenario.vehicleId },
+  }
+}
+
+export async function compareUpload(
+  db: Db,
+  actor: Actor,
+  uploadId: string,
+  scenarioId: string,
+): Promise<LogCompareAnswer> {
+  const upload = await loadUpload(db, actor, uploadId, 'read')
+  const r = await comparison(db, actor, upload, scenarioId, 'read')
+  return { ...r.comparison, planDays: r.planDays, scenario: r.scenario }
+}
+
+/**
+ * A copy of the scenario whose appliance use is scaled by measured ÷ planned use, made with the scenarios
+ * module's own duplicate and patch (history rows included).
+ */
+export async function calibrateScenario(
+  db: Db,
+  actor: Actor,
+  uploadId: string,
+  input: { scenarioId: string; name?: string | undefined },
+): Promise<LogCalibrateAnswer> {
+  const upload = await loadUpload(db, actor, uploadId, 'write')
+  const { comparison: c, scenario } = await comparison(db, actor, upload, input.scenarioId, 'write')
+  if (c.useRatio === null || c.totals.days === 0) {
+    throw new HttpError(
+      422,
+      'nothing_to_calibrate',
+      'No full day of this log lines up with the plan, so there is no measured ratio to calibrate with.',
+    )
+  }
+  const ratio = Math.round(c.useRatio * 100) / 100
+  const appliances = await loadApplianceRows(db, upload.vehicleId)
+  const usage = await loadUsage(db, scenario.id)
+  const calibrated = calibrateUsage(
+    appliances.map((a) => ({ id: a.id, ...a.params })),
+    usage,
+    ratio,
+  )
+  const name = (input.name ?? `${scenario.name} (calibrated ×${ratio.toFixed(2)})`).slice(0, 120)
+  const copy = await duplicateScenario(db, actor, scenario.id, { name })
+  try {
+    const patched = await patchScenario(db, actor, copy.id, {
+      version: copy.version,
+      usage: calibrated.usage,
+      notes:
+        `${copy.notes ? copy.notes + '\n\n' : ''}Calibrated from the log “${upload.fileName}”: appliance use scaled by ${ratio.toFixed(2)} (measured ÷ planned use from the pack over ${c.totals.days} full days).`.slice(
+          0,
+          4000,
+        ),
+    })
+    return {
+      scenario: {
+        id: patched.id,
+        name: patched.name,
+        vehicleId: patched.vehicleId,
+        version: patched.version,
+      },
+      ratio,
+      capped: calibrated.capped,
+    }
+  } catch (err) {
+    await deleteScenario(db, actor, copy.id, copy.version).catch(() => {})
+    throw err
+  }
+}
