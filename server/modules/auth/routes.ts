@@ -58,6 +58,8 @@ export function authRouter(ctx: AppContext): Router {
   r.post('/sign-in', signInLimit, async (req, res) => {
     const input = parse(SignInSchema, req.body)
     const user = await auth.signIn(ctx, input, baseUrl(ctx, req))
+    // A session this browser already had (perhaps another account's) ends; the new one replaces it.
+    if (res.locals.session) await ctx.lucia.invalidateSession(res.locals.session.id)
     await startSession(ctx, req, res, user.id)
     res.json({ user: auth.toPublicUser(user) })
   })
