@@ -10,7 +10,7 @@ import { localMidnightUtcMs } from './sun/localTime.ts'
 import { dayOfYearUtc } from './sun/declination.ts'
 import { extraterrestrialNormalSpencerWPerM2 } from './irradiance/extraterrestrial.ts'
 import { clearSkyGhiHaurwitzWPerM2 } from './irradiance/clearSky.ts'
-import { splitErbs1982 } from './irradiance/erbs.ts'
+import { diffuseFractionErbs1982 } from './irradiance/erbs.ts'
 import { cellTempNoctC, pvwattsDcW, CONTROLLER_FACTOR } from './pv/module.ts'
 import { ambientTempC } from './thermal/ambient.ts'
 import { applianceDayProfileW, overlapWithWindowH } from './loads/profile.ts'
@@ -40,6 +40,8 @@ export interface SunSeries {
   clearSkyGhiWPerM2: Float64Array
   /** First local hour with the sun up, per day (24 in polar night). [h] */
   sunriseHour: Float64Array
+  /** Local calendar date of each day, YYYY-MM-DD. */
+  dates: string[]
 }
 
 const SUN_CACHE_SIZE = 8
@@ -80,10 +82,12 @@ export function computeSunSeries(
     extraNormalWPerM2: new Float64Array(n),
     clearSkyGhiWPerM2: new Float64Array(n),
     sunriseHour: new Float64Array(days),
+    dates: [],
   }
   for (let d = 0; d < days; d++) {
     const start = localMidnightUtcMs(startDate, d, timeZone)
     s.dayStartUtcMs[d] = start
+    s.dates.push(new Date(start + 12 * 3_600_000).toISOString().slice(0, 10))
     const gon = extraterrestrialNormalSpencerWPerM2(dayOfYearUtc(start + 12 * 3_600_000))
     let sunrise = 24
     for (let k = 0; k < 24; k++) {
@@ -161,9 +165,14 @@ function solarAvailable(
     const g = ghi[i]!
     if (g <= 0) continue
     const zen = 90 - sun.elevationDeg[i]!
-    const split = splitErbs1982(g, zen, sun.extraNormalWPerM2[i]!)
     const cosZ = Math.cos(zen * DEG)
     const sinZ = Math.sin(zen * DEG)
+    // Erbs split (erbs.ts, splitErbs1982), inlined to keep the hourly loop free of allocation.
+    // Below 3° of sun everything counts as diffuse, as in splitErbs1982.
+    const low = zen > 87
+    const kt = low ? 0 : Math.min(1, g / (sun.extraNormalWPerM2[i]! * Math.max(cosZ, 0.065)))
+    const dhi = low ? g : g * diffuseFractionErbs1982(kt)
+    const dni = low ? 0 : (g - dhi) / cosZ
     let w = 0
     for (let k = 0; k < arrays.length; k++) {
       const a = arrays[k]!
@@ -171,9 +180,7 @@ function solarAvailable(
       const cosAoi =
         cosZ * cosTilt[k]! + sinZ * sinTilt[k]! * Math.cos((sun.azimuthDeg[i]! - a.azimuthDeg) * DEG)
       const poa =
-        split.dniWPerM2 * Math.max(0, cosAoi) +
-        (split.dhiWPerM2 * (1 + cosTilt[k]!)) / 2 +
-        (g * albedo * (1 - cosTilt[k]!)) / 2
+        dni * Math.max(0, cosAoi) + (dhi * (1 + cosTilt[k]!)) / 2 + (g * albedo * (1 - cosTilt[k]!)) / 2
       const dc = pvwattsDcW(poa, cellTempNoctC(poa, ambient[i]!, a.noctC), a.peakPowerWp, a.tempCoeffPerC)
       const atPack = dc * (1 - a.lossesFraction) * CONTROLLER_FACTOR[a.controller]
       w += Math.min(atPack, a.maxCurrentA * vCharge)

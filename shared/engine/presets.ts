@@ -21,7 +21,7 @@ import type {
 export interface ChemistryPreset {
   /** Nominal cell voltage. [V] */
   cellNominalV: number
-  /** Charging (absorption) voltage per cell, used to turn charger amps into watts. [V] */
+  /** Average cell voltage while charging (bulk phase), used to turn charger amps into watts. [V] */
   cellChargeV: number
   socFloorFraction: number
   socCeilingFraction: number
@@ -56,7 +56,7 @@ export interface ChemistryPreset {
 export const CHEMISTRY_PRESETS: Readonly<Record<Chemistry, Readonly<ChemistryPreset>>> = {
   lfp: {
     cellNominalV: 3.2, // LiFePO4 nominal 3.2 V [M] Padhi et al. 1997 plateau; 4S = 12.8 V [CP]
-    cellChargeV: 3.55, // absorption 3.55–3.65 V/cell [CP]
+    cellChargeV: 3.4, // bulk-phase average 13.6 V per 4S, below the 3.55–3.65 V absorption setpoint [CP]
     socFloorFraction: 0.1, // 90 % design depth of discharge [M] REFERENCES §5.1
     socCeilingFraction: 1, // common practice, no source
     roundTripEfficiencyFraction: 0.95, // 92–97 % [M] REFERENCES §5.1
@@ -83,7 +83,7 @@ export const CHEMISTRY_PRESETS: Readonly<Record<Chemistry, Readonly<ChemistryPre
   },
   agm: {
     cellNominalV: 2, // lead-acid 2.0 V/cell → 12 V (6 cells) [M]
-    cellChargeV: 2.45, // AGM absorb 14.4–14.7 V per 12 V [CP]
+    cellChargeV: 2.35, // bulk-phase average ~14.1 V per 12 V, below the 14.4–14.7 V absorb setpoint [CP]
     socFloorFraction: 0.5, // 50 % DoD for cycle life [CP] trade sizing worksheets
     socCeilingFraction: 1, // common practice, no source
     roundTripEfficiencyFraction: 0.85, // AGM ~85 % [M] REFERENCES §5.1
@@ -108,7 +108,7 @@ export const CHEMISTRY_PRESETS: Readonly<Record<Chemistry, Readonly<ChemistryPre
   },
   gel: {
     cellNominalV: 2, // [M]
-    cellChargeV: 2.35, // gel absorb ~14.1 V per 12 V [CP]
+    cellChargeV: 2.3, // bulk-phase average ~13.8 V per 12 V, below the ~14.1 V absorb setpoint [CP]
     socFloorFraction: 0.5, // [CP]
     socCeilingFraction: 1, // common practice, no source
     roundTripEfficiencyFraction: 0.85, // [M] REFERENCES §5.1 (80–85 %)
@@ -133,7 +133,7 @@ export const CHEMISTRY_PRESETS: Readonly<Record<Chemistry, Readonly<ChemistryPre
   },
   flooded: {
     cellNominalV: 2, // [M]
-    cellChargeV: 2.45, // flooded absorb 14.4–14.8 V [CP]
+    cellChargeV: 2.35, // bulk-phase average ~14.1 V per 12 V, below the 14.4–14.8 V absorb setpoint [CP]
     socFloorFraction: 0.5, // [CP]
     socCeilingFraction: 1, // common practice, no source
     roundTripEfficiencyFraction: 0.8, // flooded ~80 % [M] REFERENCES §5.1

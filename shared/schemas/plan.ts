@@ -355,9 +355,13 @@ export function windowLengthH(startHour: number, endHour: number): number {
   return len === 0 ? 24 : len
 }
 
+const knownTimeZones = new Set<string>()
+
 export function isValidTimeZone(name: string): boolean {
+  if (knownTimeZones.has(name)) return true
   try {
     new Intl.DateTimeFormat('en-US', { timeZone: name })
+    knownTimeZones.add(name)
     return true
   } catch {
     return false

@@ -182,7 +182,7 @@ function dayRowsFrom(
   const rows: DayRow[] = []
   let prevSoc = startSoc
   for (let d = 0; d < prep.days; d++) {
-    const row = newDayRow(d, isoDate(prep.sun.dayStartUtcMs[d]! + 12 * 3_600_000), prevSoc)
+    const row = newDayRow(d, prep.sun.dates[d]!, prevSoc)
     for (let i = d * 24; i < d * 24 + 24; i++) {
       const soc = r.soc[i]!
       if (soc < row.lowestSocFraction) row.lowestSocFraction = soc
@@ -211,10 +211,6 @@ function dayRowsFrom(
     rows.push(row)
   }
   return rows
-}
-
-function isoDate(epochMs: number): string {
-  return new Date(epochMs).toISOString().slice(0, 10)
 }
 
 function newDayRow(day: number, date: string, soc: number): DayRow {

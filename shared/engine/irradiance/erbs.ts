@@ -14,7 +14,8 @@
 export function diffuseFractionErbs1982(clearnessIndex: number): number {
   const kt = clearnessIndex
   if (kt <= 0.22) return 1 - 0.09 * kt
-  if (kt <= 0.8) return 0.9511 - 0.1604 * kt + 4.388 * kt ** 2 - 16.638 * kt ** 3 + 12.336 * kt ** 4
+  // Horner form of 0.9511 − 0.1604 kt + 4.388 kt² − 16.638 kt³ + 12.336 kt⁴.
+  if (kt <= 0.8) return 0.9511 + kt * (-0.1604 + kt * (4.388 + kt * (-16.638 + kt * 12.336)))
   return 0.165
 }
 
