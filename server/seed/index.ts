@@ -2,6 +2,7 @@ import { sql } from 'drizzle-orm'
 import type { Db } from '../db/client'
 import { seedUsers } from './users'
 import { seedVehicles } from './vehicles'
+import { seedBuildSheet } from './buildsheet'
 import { seedReviews } from './reviews'
 
 /** Seed the invented demo when the database has no users yet. Returns whether it seeded. */
@@ -16,5 +17,6 @@ export async function seedDemoIfEmpty(db: Db): Promise<boolean> {
 export async function seedDemo(db: Db): Promise<void> {
   await seedUsers(db)
   await seedVehicles(db)
+  await seedBuildSheet(db)
   await seedReviews(db)
 }

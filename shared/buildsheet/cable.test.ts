@@ -155,6 +155,12 @@ describe('the fuse protects the cable', () => {
     expect(s.metric?.ampacityA).toBeGreaterThanOrEqual(60)
   })
 
+  it('never goes below 16 AWG / 1.5 mm² (ABYC E-11 minimum, REFERENCES §7.4 [R])', () => {
+    const s = sizeCable(run({ currentA: 0.5, oneWayLengthM: 1, fuseA: 1 }))
+    expect(s.metric?.areaMm2).toBe(1.5)
+    expect(s.awg?.label).toBe('16')
+  })
+
   it('reports no size when nothing in the table fits', () => {
     const s = sizeCable(run({ currentA: 600, oneWayLengthM: 10, fuseA: 800 }))
     expect(s.metric).toBeNull()

@@ -24,6 +24,13 @@ export const CRITICAL_DROP_FRACTION = 0.03
 export const NON_CRITICAL_DROP_FRACTION = 0.1
 
 /**
+ * Smallest conductor used for any run: ABYC E-11 asks for at least 16 AWG (REFERENCES §7.4 [R]);
+ * 1.5 mm² is the next metric size up from 16 AWG's 1.31 mm² (common practice, no source).
+ */
+export const MIN_AWG_GAUGE = 16
+export const MIN_AREA_MM2 = 1.5
+
+/**
  * Voltage drop of a two-wire copper run.
  *
  * @param currentA - current in the run [A]
@@ -103,6 +110,7 @@ export function sizeCable(input: CableRunInput): CableSizing {
   let metric: CableSizing['metric'] = null
   let metricByDropMm2: number | null = null
   for (const c of table) {
+    if (c.areaMm2 < MIN_AREA_MM2) continue
     const amp = METRIC_AMPACITY_A[c.areaMm2]?.[input.insulationRatingC] ?? null
     if (metricByDropMm2 === null && fits(c, amp, input, false)) metricByDropMm2 = c.areaMm2
     const ok = fits(c, amp, input, true)
@@ -113,6 +121,7 @@ export function sizeCable(input: CableRunInput): CableSizing {
   }
   let awg: CableSizing['awg'] = null
   for (const c of AWG_SIZES) {
+    if (c.gaugeNumber > MIN_AWG_GAUGE) continue
     const ok = fits(c, AWG_AMPACITY_A[c.label]?.[input.insulationRatingC] ?? null, input, true)
     if (ok) {
       awg = { ...c, ...ok }

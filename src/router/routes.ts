@@ -40,6 +40,7 @@ export const routes: RouteRecordRaw[] = [
         component: () => import('../pages/ScenarioEditPage.vue'),
         meta: { requiresAuth: true, title: 'Scenario' },
       },
+      { path: 'vehicles/:vehicleId/build-sheet', name: 'vehicles.build-sheet', component: () => import('../pages/BuildSheetPage.vue'), meta: { requiresAuth: true, title: 'Build sheet' } },
       { path: 'scenarios/:scenarioId/outlook', name: 'outlook', component: () => import('../pages/ScenarioOutlookPage.vue'), meta: { requiresAuth: true, title: 'Outlook' } },
       { path: 'side-by-side', name: 'compare', component: () => import('../pages/ComparePage.vue'), meta: { requiresAuth: true, title: 'Side by side' } },
       {
