@@ -142,3 +142,25 @@ export const fakePaymentsUrl = () => {
   if (!u) throw new Error('STRIPE_API_URL is not set: run the tests with npm test')
   return u
 }
+
+/** A Playwright cookie for a test user's session (so a story can start signed in). */
+export function sessionCookie(user: { cookie: string }, url: string) {
+  const [name, ...rest] = user.cookie.split('=')
+  return { name: name!, value: rest.join('='), url }
+}
+
+/** Wait for a mail to arrive at the local fake SMTP server (read through its HTTP API). */
+export async function waitForMail(to: string, match: (m: { subject: string; text: string }) => boolean, timeoutMs = 15_000) {
+  const api = process.env.OHMWARD_FAKE_MAIL_API
+  if (!api) throw new Error('OHMWARD_FAKE_MAIL_API is not set: run the tests with npm test')
+  const until = Date.now() + timeoutMs
+  while (Date.now() < until) {
+    const r = (await fetch(`${api}/messages?to=${encodeURIComponent(to)}`).then((x) => x.json())) as {
+      messages: { subject: string; text: string }[]
+    }
+    const hit = r.messages.find(match)
+    if (hit) return hit
+    await new Promise((ok) => setTimeout(ok, 250))
+  }
+  throw new Error(`no mail to ${to} matched within ${timeoutMs} ms`)
+}
