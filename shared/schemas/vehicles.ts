@@ -63,6 +63,18 @@ export const LIST_LIMITS = {
 const requiredOr = (what: string) => (iss: { input?: unknown }) =>
   iss.input === undefined ? 'is required' : what
 
+/** Query-string value → number; absent or blank → undefined (not 0, as `z.coerce` would make it). */
+const fromQuery = (v: unknown) =>
+  v === undefined || (typeof v === 'string' && v.trim() === '')
+    ? undefined
+    : typeof v === 'string'
+      ? Number(v)
+      : v
+
+/** A number from a query string: absent is "is required", anything not a number is "must be a number". */
+export const queryNumber = () => z.preprocess(fromQuery, z.number({ error: requiredOr('must be a number') }))
+const queryInt = () => queryNumber().pipe(z.number().int('must be a whole number'))
+
 export const IdSchema = z.uuid({ error: 'must be an id (UUID)' })
 
 /** The version the client last saw. */
@@ -97,13 +109,22 @@ export type RecordMeta = z.infer<typeof RecordMetaSchema>
 
 /** Query of paginated lists. */
 export const PageQuerySchema = z.object({
-  limit: z.coerce
-    .number({ error: 'must be a number' })
-    .int('must be a whole number')
-    .min(1, 'must be at least 1')
-    .max(LIST_LIMITS.maxLimit, `must be at most ${LIST_LIMITS.maxLimit}`)
+  limit: z
+    .preprocess(
+      fromQuery,
+      z
+        .number({ error: 'must be a number' })
+        .int('must be a whole number')
+        .min(1, 'must be at least 1')
+        .max(LIST_LIMITS.maxLimit, `must be at most ${LIST_LIMITS.maxLimit}`),
+    )
     .default(LIST_LIMITS.defaultLimit),
-  offset: z.coerce.number({ error: 'must be a number' }).int('must be a whole number').min(0).default(0),
+  offset: z
+    .preprocess(
+      fromQuery,
+      z.number({ error: 'must be a number' }).int('must be a whole number').min(0, 'must be 0 or more'),
+    )
+    .default(0),
 })
 export type PageQuery = z.infer<typeof PageQuerySchema>
 
@@ -120,10 +141,7 @@ export const itemsOf = <T extends z.ZodType>(item: T) => z.object({ items: z.arr
 
 /** Query of every DELETE: the version the client last saw. */
 export const DeleteQuerySchema = z.object({
-  version: z.coerce
-    .number({ error: requiredOr('must be a number') })
-    .int('must be a whole number')
-    .min(0),
+  version: queryInt().pipe(z.number().min(0, 'must be 0 or more')),
 })
 
 // ---------------------------------------------------------------------------------------------
@@ -493,7 +511,10 @@ export const PlaceSearchQuerySchema = z.object({
     .trim()
     .min(2, 'must be at least 2 characters')
     .max(100),
-  limit: z.coerce.number().int().min(1).max(10).default(10),
+  limit: queryInt()
+    .pipe(z.number().min(1, 'must be at least 1').max(10, 'must be at most 10'))
+    .optional()
+    .default(10),
 })
 export type PlaceSearchQuery = z.infer<typeof PlaceSearchQuerySchema>
 
@@ -513,14 +534,12 @@ export type PlaceList = { items: Place[] }
 
 /** GET /api/places/timezone?latitudeDeg=&longitudeDeg= */
 export const TimeZoneQuerySchema = z.object({
-  latitudeDeg: z.coerce
-    .number({ error: requiredOr('must be a number') })
-    .min(-90, 'must be between -90 and 90')
-    .max(90, 'must be between -90 and 90'),
-  longitudeDeg: z.coerce
-    .number({ error: requiredOr('must be a number') })
-    .min(-180, 'must be between -180 and 180')
-    .max(180, 'must be between -180 and 180'),
+  latitudeDeg: queryNumber().pipe(
+    z.number().min(-90, 'must be between -90 and 90').max(90, 'must be between -90 and 90'),
+  ),
+  longitudeDeg: queryNumber().pipe(
+    z.number().min(-180, 'must be between -180 and 180').max(180, 'must be between -180 and 180'),
+  ),
 })
 export type TimeZoneQuery = z.infer<typeof TimeZoneQuerySchema>
 export const TimeZoneAnswerSchema = z.object({

@@ -2,7 +2,7 @@ import { Router } from 'express'
 import { PlaceSearchQuerySchema, TimeZoneQuerySchema } from '../../../shared/schemas/vehicles'
 import type { AppContext } from '../../context'
 import { requireUser } from '../../middleware/require-user'
-import { parse } from '../../validate'
+import { parseInput as parse } from '../vehicles/input'
 import { searchPlaces, timeZoneAnswer } from './places.service'
 
 /** /api/places: city search and time zone from coordinates. */

@@ -7,7 +7,7 @@ import {
 } from '../../../shared/schemas/vehicles'
 import type { AppContext } from '../../context'
 import { requireUser } from '../../middleware/require-user'
-import { parse } from '../../validate'
+import { parseInput as parse } from '../vehicles/input'
 import { actorOf } from '../vehicles/actor'
 import { buildPlanForScenario } from './plan'
 import * as service from './scenarios.service'

@@ -6,7 +6,7 @@ import {
   DeleteQuerySchema,
 } from '../../../shared/schemas/vehicles'
 import type { AppContext } from '../../context'
-import { parse } from '../../validate'
+import { parseInput as parse } from './input'
 import { actorOf } from './actor'
 import { importAppliances } from './appliances.csv'
 import * as service from './appliances.service'

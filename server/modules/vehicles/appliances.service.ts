@@ -11,7 +11,7 @@ import {
 import type { Db } from '../../db/client'
 import { appliances } from '../../db/schema/index'
 import { HttpError, notFound } from '../../errors'
-import { parse } from '../../validate'
+import { parseInput as parse } from './input'
 import { isId, requireVehicleRole } from './access'
 import {
   changedKeys,

@@ -6,7 +6,7 @@ import {
   type ChargeSourcePatch,
 } from '../../../shared/schemas/vehicles'
 import type { AppContext } from '../../context'
-import { parse } from '../../validate'
+import { parseInput as parse } from './input'
 import { actorOf } from './actor'
 import * as service from './sources.service'
 

@@ -10,7 +10,7 @@ import {
 import type { Db } from '../../db/client'
 import { chargeSources } from '../../db/schema/index'
 import { HttpError, notFound, validationFailed } from '../../errors'
-import { parse } from '../../validate'
+import { parseInput as parse } from './input'
 import { isId, requireVehicleRole } from './access'
 import {
   changedKeys,

@@ -11,7 +11,7 @@ import {
 } from '../../../shared/schemas/vehicles'
 import type { AppContext } from '../../context'
 import { requireUser } from '../../middleware/require-user'
-import { parse } from '../../validate'
+import { parseInput as parse } from './input'
 import * as scenarios from '../scenarios/scenarios.service'
 import { actorOf } from './actor'
 import { appliancesRouter } from './appliances.routes'
