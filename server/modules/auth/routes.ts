@@ -34,8 +34,12 @@ function clearSessionCookie(ctx: AppContext, res: Response): void {
   res.append('Set-Cookie', ctx.lucia.createBlankSessionCookie().serialize())
 }
 
-const CHECK_INBOX =
-  'If that address can be used, a mail is on its way to it. Open the link in it to go on. It can take a minute; check the spam folder too.'
+/** True for every address: a registered one gets an "you already have an account" mail instead of a link. */
+const SIGN_UP_SENT =
+  'A mail is on its way to that address. Open the link in it to go on. It can take a minute; check the spam folder too.'
+/** Unknown addresses get no mail, so this says "if". */
+const RESET_SENT =
+  'If that address has an account, a mail with a link is on its way to it. It can take a minute; check the spam folder too.'
 
 /** /api/auth: sign-up, sign-in and out, e-mail links. */
 export function authRouter(ctx: AppContext): Router {
@@ -52,7 +56,7 @@ export function authRouter(ctx: AppContext): Router {
   r.post('/sign-up', signUpLimit, async (req, res) => {
     const input = parse(SignUpSchema, req.body)
     await auth.signUp(ctx, input, baseUrl(ctx, req))
-    res.status(202).json({ message: CHECK_INBOX })
+    res.status(202).json({ message: SIGN_UP_SENT })
   })
 
   r.post('/sign-in', signInLimit, async (req, res) => {
@@ -93,7 +97,7 @@ export function authRouter(ctx: AppContext): Router {
   r.post('/forgot-password', resetLimit, async (req, res) => {
     const { email } = parse(EmailOnlySchema, req.body)
     await auth.requestPasswordReset(ctx, email, baseUrl(ctx, req))
-    res.status(202).json({ message: CHECK_INBOX })
+    res.status(202).json({ message: RESET_SENT })
   })
 
   r.post('/reset-password', resetLimit, async (req, res) => {
