@@ -191,10 +191,12 @@ function solarAvailable(
 }
 
 function chargersAvailable(plan: ResolvedPlan, hours: number) {
-  const dcdcW = new Float64Array(hours)
-  const shoreW = new Float64Array(hours)
-  const generatorW = new Float64Array(hours)
-  const generatorRunH = new Float64Array(hours)
+  // One allocation for the four series (large typed arrays are costly to allocate one by one).
+  const buf = new Float64Array(hours * 4)
+  const dcdcW = buf.subarray(0, hours)
+  const shoreW = buf.subarray(hours, 2 * hours)
+  const generatorW = buf.subarray(2 * hours, 3 * hours)
+  const generatorRunH = buf.subarray(3 * hours)
   const v = plan.battery.chargeVoltageV
   const dcdcA = plan.sources.dcdc.reduce((s, c) => s + c.currentA, 0)
   const shoreA = plan.sources.shore.reduce((s, c) => s + c.currentA, 0)
@@ -266,8 +268,9 @@ export function prepareTrip(plan: ResolvedPlan): PreparedTrip {
   const hours = days * 24
   const sun = sunSeriesFor(t.startDate, days, t.latitudeDeg, t.longitudeDeg, t.timeZone)
   const factors = skyFactors(sun, days, t.clearnessIndexFraction)
-  const ghi = new Float64Array(hours)
-  const ambient = new Float64Array(hours)
+  const buf = new Float64Array(hours * 2)
+  const ghi = buf.subarray(0, hours)
+  const ambient = buf.subarray(hours)
   for (let i = 0; i < hours; i++) {
     const d = Math.floor(i / 24)
     ghi[i] = sun.clearSkyGhiWPerM2[i]! * factors[d]!

@@ -34,6 +34,8 @@ export interface RunOptions {
   hours?: number
   /** Stop at the first hour the pack sheds load: at its floor, its current limit or too cold/hot (autonomy). */
   stopAtFirstShortage?: boolean
+  /** Stop at the first hour shed at the floor or the current limit (pack-needed search: one is enough). */
+  stopAtFirstFloorShortage?: boolean
 }
 
 export interface HourlySeries {
@@ -421,6 +423,7 @@ export function runPack(prep: PreparedTrip, opt: RunOptions = {}): RunResult {
       t.lowestSocHour = h
     }
     t.hoursRun = h + 1
+    if (opt.stopAtFirstFloorShortage && t.shortageWh > 1e-6) break
     if ((shortage > 1e-9 || dischargeBlocked > 1e-9) && t.firstShortageHour < 0) {
       t.firstShortageHour = h
       if (opt.stopAtFirstShortage) break

@@ -44,15 +44,19 @@ export function packNeeded(prep: PreparedTrip): PackNeededResult {
   let runs = 0
   const ok = (ah: number) => {
     runs++
-    return runPack(prep, { capacityAh: ah, record: false }).totals.shortageWh <= 1e-6
+    return (
+      runPack(prep, { capacityAh: ah, record: false, stopAtFirstFloorShortage: true }).totals.shortageWh <=
+      1e-6
+    )
   }
-  let hi = Math.max(1, prep.plan.battery.capacityAh)
+  let hi = Math.max(1, Math.round(prep.plan.battery.capacityAh))
+  let lo = 0
   while (!ok(hi)) {
     if (hi >= PACK_MAX_AH)
       return { capacityAh: null, reason: `no pack up to ${PACK_MAX_AH} Ah keeps the loads running`, runs }
+    lo = hi
     hi = Math.min(PACK_MAX_AH, hi * 2)
   }
-  let lo = 0
   while (hi - lo > 1) {
     const mid = Math.floor((lo + hi) / 2)
     if (mid > 0 && ok(mid)) hi = mid
@@ -85,12 +89,15 @@ export function solarNeeded(prep: PreparedTrip): SolarNeededResult {
     const r = runPack(prep, { solarScale: totalWp / wp, record: false })
     return r.totals.finalSocFraction >= start - 1e-9
   }
-  if (!ok(SOLAR_MAX_SCALE_WP)) return { peakPowerWp: null, reason: whySolarFails(prep, wp), runs }
   if (ok(0)) return { peakPowerWp: 0, reason: null, runs }
+  // Bracket by doubling from the plan's own size, then bisect to 1 Wp.
   let lo = 0
-  let hi = SOLAR_MAX_SCALE_WP
-  if (ok(wp)) hi = wp
-  else lo = wp
+  let hi = Math.max(1, Math.round(wp))
+  while (!ok(hi)) {
+    if (hi >= SOLAR_MAX_SCALE_WP) return { peakPowerWp: null, reason: whySolarFails(prep, wp), runs }
+    lo = hi
+    hi = Math.min(SOLAR_MAX_SCALE_WP, hi * 2)
+  }
   while (hi - lo > 1) {
     const mid = Math.floor((lo + hi) / 2)
     if (ok(mid)) hi = mid
