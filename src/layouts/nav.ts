@@ -34,5 +34,12 @@ export const mainNav: NavItem[] = [
   { name: 'advisors', to: '/advisors', icon: 'support_agent', label: 'Advisors', hint: 'People who review plans' },
   { name: 'reviews', to: '/reviews', icon: 'rate_review', label: 'Reviews', hint: 'Advice on your plans' },
   { name: 'account', to: '/account', icon: 'account_circle', label: 'Account', hint: 'Profile and units' },
-  { name: 'admin', to: '/admin/users', icon: 'admin_panel_settings', label: 'People', hint: 'Accounts and roles', role: 'admin' },
+  {
+    name: 'admin',
+    to: '/admin/users',
+    icon: 'admin_panel_settings',
+    label: 'People',
+    hint: 'Accounts and roles',
+    role: 'admin',
+  },
 ]
