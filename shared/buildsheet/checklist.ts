@@ -94,7 +94,7 @@ export function buildChecklist(p: ProtectionPlan, r: Ratings, runs: readonly Cab
       id: `device:${f.id}`,
       text: `Fuse: ${f.label}`,
       value: `${amps(f.ratingA)} (from ${r1(f.continuousA)} A)`,
-      source: MARGIN_RULE_TEXT,
+      source: 'margin rule: 125 %, next standard size',
     })
   }
   for (const run of runs) {

@@ -33,7 +33,7 @@ describe('protection rules per chemistry preset', () => {
     expect(tooCold.condition).toBe('Any cell colder than 0 °C')
     const tooFull = p.rules.find((r) => r.id === 'charge-too-full')!
     expect(tooFull.condition).toContain('3.65 V per cell (14.6 V pack)') // 4 × 3.65 = 14.6 V (REFERENCES §5.1)
-    // Charger: absorption from the preset 3.55 V/cell → 14.2 V; no temperature compensation; no equalising.
+    // Charger: absorption 3.55 V/cell → 14.2 V (REFERENCES §5.1 [CP]); no temperature compensation; no equalising.
     const s = Object.fromEntries(p.chargerSettings.map((c) => [c.id, c.value]))
     expect(s['charger-absorption']).toContain('14.2 V pack')
     expect(s['charger-temp-comp']).toBe('off')
@@ -45,9 +45,9 @@ describe('protection rules per chemistry preset', () => {
     const p = rulesFor('agm')
     expect(p.thresholds.chargeMinC.value).toBe(-20)
     const s = Object.fromEntries(p.chargerSettings.map((c) => [c.id, c.value]))
-    expect(s['charger-temp-comp']).toContain('-24 mV/K pack') // 6 cells × −4 mV/K
+    expect(s['charger-temp-comp']).toContain('−24 mV/K pack') // 6 cells × −4 mV/K
     expect(s['charger-float']).toContain('13.6 V pack') // 6 × 2.267 = 13.60 V
-    expect(s['charger-absorption']).toContain('14.7 V pack') // preset 2.45 V/cell
+    expect(s['charger-absorption']).toContain('14.7 V pack') // 2.45 V/cell, AGM 14.4–14.7 V (REFERENCES §5.1 [CP])
     expect(p.rules.some((r) => r.action === 'heater-on')).toBe(false) // no pad in the plan
   })
 

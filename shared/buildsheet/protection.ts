@@ -87,6 +87,7 @@ interface CellDefaults {
   cellLoadCutoffV: [number, string]
   cellLoadReconnectV: [number, string]
   cellInverterOffV: [number, string]
+  cellAbsorptionV: [number, string]
   cellFloatV: [number, string]
   tempCompensationMVPerKPerCell: [number, string]
   temperatureHysteresisK: [number, string]
@@ -100,6 +101,7 @@ export const CELL_DEFAULTS: Readonly<Record<Chemistry, Readonly<CellDefaults>>> 
     cellLoadCutoffV: [2.8, `${CP} (kept above the 2.5 V cell limit, REFERENCES §5.1 [M])`],
     cellLoadReconnectV: [3.1, CP],
     cellInverterOffV: [2.9, `${CP} (inverter off before the load path opens under load)`],
+    cellAbsorptionV: [3.55, 'LFP absorption 14.2–14.6 V per 4 cells (REFERENCES §5.1 [CP])'],
     cellFloatV: [3.375, 'float 13.4–13.6 V per 4 cells or none (REFERENCES §5.1 [CP])'],
     tempCompensationMVPerKPerCell: [0, 'LFP: no temperature compensation (REFERENCES §5.1 [CP])'],
     temperatureHysteresisK: [3, CP],
@@ -113,6 +115,7 @@ export const CELL_DEFAULTS: Readonly<Record<Chemistry, Readonly<CellDefaults>>> 
     ],
     cellLoadReconnectV: [2.1, CP],
     cellInverterOffV: [1.98, CP],
+    cellAbsorptionV: [2.45, 'AGM absorption 14.4–14.7 V (REFERENCES §5.1 [CP])'],
     cellFloatV: [2.267, 'AGM float 13.5–13.8 V (REFERENCES §5.1 [CP])'],
     tempCompensationMVPerKPerCell: [-4, 'lead-acid −3 to −5 mV/K per cell (REFERENCES §5.1 [CP])'],
     temperatureHysteresisK: [3, CP],
@@ -123,6 +126,7 @@ export const CELL_DEFAULTS: Readonly<Record<Chemistry, Readonly<CellDefaults>>> 
     cellLoadCutoffV: [1.95, `${CP} (11.7 V per 12 V block under light load)`],
     cellLoadReconnectV: [2.1, CP],
     cellInverterOffV: [1.98, CP],
+    cellAbsorptionV: [2.35, `${CP} (gel absorption about 14.1 V)`],
     cellFloatV: [2.3, `${CP} (gel float about 13.8 V)`],
     tempCompensationMVPerKPerCell: [-4, 'lead-acid −3 to −5 mV/K per cell (REFERENCES §5.1 [CP])'],
     temperatureHysteresisK: [3, CP],
@@ -133,6 +137,7 @@ export const CELL_DEFAULTS: Readonly<Record<Chemistry, Readonly<CellDefaults>>> 
     cellLoadCutoffV: [1.95, `${CP} (11.7 V per 12 V block under light load)`],
     cellLoadReconnectV: [2.1, CP],
     cellInverterOffV: [1.98, CP],
+    cellAbsorptionV: [2.45, 'flooded absorption 14.4–14.8 V (REFERENCES §5.1 [CP])'],
     cellFloatV: [2.2, 'flooded float 13.2–13.5 V (REFERENCES §5.1 [CP])'],
     tempCompensationMVPerKPerCell: [-4, 'lead-acid −3 to −5 mV/K per cell (REFERENCES §5.1 [CP])'],
     temperatureHysteresisK: [3, CP],
@@ -163,7 +168,8 @@ export function defaultThresholds(b: ResolvedBattery): Record<ProtectionKey, [nu
     heaterOffAboveC: heater
       ? [heater.offAboveC, `${FROM_PLAN}: heater pad`]
       : [NaN, 'no heater pad in the plan'],
-    cellAbsorptionV: [b.chargeVoltageV / b.cellsSeries, `${FROM_PLAN}: charge voltage ÷ cells in series`],
+    // Not the plan's chargeVoltageV: the engine uses that as a bulk-phase average for power, not a setpoint.
+    cellAbsorptionV: cell.cellAbsorptionV,
     cellFloatV: cell.cellFloatV,
     tempCompensationMVPerKPerCell: cell.tempCompensationMVPerKPerCell,
     maxChargeCurrentA: [b.maxChargeCurrentA, `${FROM_PLAN}: most charge current`],
@@ -260,7 +266,9 @@ export interface ProtectionPlan {
   issues: Partial<Record<ProtectionKey, string>>
 }
 
-const fmt = (x: number, digits = 2) => (Number.isFinite(x) ? String(Number(x.toFixed(digits))) : '—')
+/** Rounded for reading, with a true minus sign (−20 °C), as the design asks. */
+const fmt = (x: number, digits = 2) =>
+  Number.isFinite(x) ? String(Number(x.toFixed(digits))).replace(/^-/, '−') : '—'
 
 /** The rules and charger settings for a battery bank and the vehicle's overrides. */
 export function protectionRules(b: ResolvedBattery, overrides: ProtectionOverrides = {}): ProtectionPlan {
