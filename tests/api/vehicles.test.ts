@@ -16,7 +16,16 @@ import {
   VehicleDetailSchema,
   VehicleListSchema,
 } from '../../shared/schemas/vehicles'
-import { caller, fridge, inverter, laptop, lfpBattery, solar, vehicleInput } from './vehicles.fixtures'
+import {
+  addMember,
+  caller,
+  fridge,
+  inverter,
+  laptop,
+  lfpBattery,
+  solar,
+  vehicleInput,
+} from './vehicles.fixtures'
 
 const ctx = testContext()
 const app = createApp(ctx)
@@ -287,6 +296,25 @@ describe('appliances', () => {
     await as('get', `/api/vehicles/${id}/appliances`)
       .expect(200)
       .expect((r) => expect(r.body.items).toHaveLength(1))
+  })
+})
+
+describe('simultaneous edits', () => {
+  it('lets exactly one of two updates carrying the same version win; the other gets 409', async () => {
+    const id = await newVehicle()
+    const a = (await as('post', `/api/vehicles/${id}/appliances`, fridge).expect(201)).body
+    const tomasEditor = await createUser(ctx)
+    await addMember(ctx, id, tomasEditor.id, 'editor')
+    const results = await Promise.all([
+      as('patch', `/api/vehicles/${id}/appliances/${a.id}`, { version: 1, powerW: 41 }),
+      call(tomasEditor)('patch', `/api/vehicles/${id}/appliances/${a.id}`, { version: 1, powerW: 42 }),
+    ])
+    expect(results.map((r) => r.status).sort()).toEqual([200, 409])
+    const winner = results.find((r) => r.status === 200)!.body
+    const loser = results.find((r) => r.status === 409)!.body
+    expect(loser.error.current).toMatchObject({ powerW: winner.powerW, version: 2 })
+    const now = (await as('get', `/api/vehicles/${id}/appliances`).expect(200)).body.items[0]
+    expect(now).toMatchObject({ powerW: winner.powerW, version: 2 })
   })
 })
 
