@@ -162,7 +162,14 @@ async function emit(type: string, object: Json, webhookUrl: string | null): Prom
     null,
     2,
   )
-  const ev: SentEvent = { id, type, payload, url: webhookUrl ?? FALLBACK_WEBHOOK ?? null, delivered: false, lastStatus: null }
+  const ev: SentEvent = {
+    id,
+    type,
+    payload,
+    url: webhookUrl ?? FALLBACK_WEBHOOK ?? null,
+    delivered: false,
+    lastStatus: null,
+  }
   events.push(ev)
   await deliver(ev)
   return ev
@@ -184,7 +191,11 @@ function createSession(form: Json, base: string): Session | string {
     currency = String(pd.currency ?? '').toLowerCase()
     if (!/^[a-z]{3}$/.test(currency)) return 'line_items[0][price_data][currency]'
     amount += unit * qty
-    summary.push({ name: String((pd.product_data as Json | undefined)?.name ?? 'Item'), amount: unit, quantity: qty })
+    summary.push({
+      name: String((pd.product_data as Json | undefined)?.name ?? 'Item'),
+      amount: unit,
+      quantity: qty,
+    })
   }
   if (!form.success_url) return 'success_url'
   if (!form.cancel_url) return 'cancel_url'
@@ -287,7 +298,13 @@ const server = createServer(async (req, res) => {
     // ---- test helpers ----
     if (method === 'GET' && path === '/_fake/events') {
       return send(res, 200, {
-        data: events.map((e) => ({ id: e.id, type: e.type, url: e.url, delivered: e.delivered, lastStatus: e.lastStatus })),
+        data: events.map((e) => ({
+          id: e.id,
+          type: e.type,
+          url: e.url,
+          delivered: e.delivered,
+          lastStatus: e.lastStatus,
+        })),
       })
     }
     m = /^\/_fake\/events\/([\w]+)\/resend$/.exec(path)
@@ -299,10 +316,13 @@ const server = createServer(async (req, res) => {
     }
 
     // ---- the provider's API ----
-    if (!path.startsWith('/v1/')) return stripeError(res, 404, `Unrecognized request URL (${method}: ${path})`)
+    if (!path.startsWith('/v1/'))
+      return stripeError(res, 404, `Unrecognized request URL (${method}: ${path})`)
     const auth = req.headers.authorization ?? ''
     if (!/^Bearer sk_(test|live)_\S+$/.test(auth)) {
-      return send(res, 401, { error: { type: 'invalid_request_error', message: 'Invalid API Key provided.' } })
+      return send(res, 401, {
+        error: { type: 'invalid_request_error', message: 'Invalid API Key provided.' },
+      })
     }
     const body = method === 'POST' ? await readBody(req) : ''
     const idemKey = method === 'POST' ? (req.headers['idempotency-key'] as string | undefined) : undefined
@@ -350,7 +370,11 @@ const server = createServer(async (req, res) => {
       if (!pi) return stripeError(res, 400, `No such payment_intent: '${piId}'`, 'payment_intent')
       if (pi.refunded) {
         return send(res, 400, {
-          error: { type: 'invalid_request_error', code: 'charge_already_refunded', message: 'This charge has already been refunded.' },
+          error: {
+            type: 'invalid_request_error',
+            code: 'charge_already_refunded',
+            message: 'This charge has already been refunded.',
+          },
         })
       }
       const s = sessions.get(pi.sessionId)!

@@ -39,7 +39,9 @@ export const MemberRolePatchSchema = z.strictObject({ role: z.enum(INVITE_ROLES,
 export type MemberRolePatch = z.infer<typeof MemberRolePatchSchema>
 
 /** POST /api/vehicles/:vehicleId/transfer (owner): the member who becomes owner; the old owner becomes editor. */
-export const TransferSchema = z.strictObject({ userId: z.string({ error: 'is required' }).min(1, 'is required') })
+export const TransferSchema = z.strictObject({
+  userId: z.string({ error: 'is required' }).min(1, 'is required'),
+})
 export type Transfer = z.infer<typeof TransferSchema>
 
 export const CrewMemberSchema = z.object({

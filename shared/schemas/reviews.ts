@@ -49,7 +49,20 @@ export const RESULT_ITEMS = [
   { id: 'heater', label: 'Heater energy' },
 ] as const
 
-export const FEE_CURRENCIES = ['EUR', 'GBP', 'USD', 'CHF', 'NOK', 'SEK', 'DKK', 'PLN', 'CZK', 'CAD', 'AUD', 'NZD'] as const
+export const FEE_CURRENCIES = [
+  'EUR',
+  'GBP',
+  'USD',
+  'CHF',
+  'NOK',
+  'SEK',
+  'DKK',
+  'PLN',
+  'CZK',
+  'CAD',
+  'AUD',
+  'NZD',
+] as const
 
 /** A fee: 0 to 10 000 with at most two decimals, as text so no float rounding ever touches it. */
 export const FeeAmountSchema = z
@@ -98,7 +111,11 @@ export type AdvisorList = z.infer<typeof AdvisorListSchema>
 export const ReviewCreateSchema = z.strictObject({
   scenarioId: z.uuid({ error: 'must be a scenario id' }),
   advisorId: z.string({ error: 'is required' }).min(1, 'is required'),
-  message: z.string({ error: 'is required' }).trim().min(1, 'must not be empty').max(4000, 'must be at most 4000 characters'),
+  message: z
+    .string({ error: 'is required' })
+    .trim()
+    .min(1, 'must not be empty')
+    .max(4000, 'must be at most 4000 characters'),
 })
 export type ReviewCreate = z.infer<typeof ReviewCreateSchema>
 
@@ -111,7 +128,11 @@ export const PinSchema = z
 
 /** POST /api/reviews/:reviewId/comments */
 export const CommentCreateSchema = z.strictObject({
-  body: z.string({ error: 'is required' }).trim().min(1, 'must not be empty').max(8000, 'must be at most 8000 characters'),
+  body: z
+    .string({ error: 'is required' })
+    .trim()
+    .min(1, 'must not be empty')
+    .max(8000, 'must be at most 8000 characters'),
   pin: PinSchema,
 })
 export type CommentCreate = z.input<typeof CommentCreateSchema>
@@ -119,7 +140,11 @@ export type CommentCreate = z.input<typeof CommentCreateSchema>
 /** POST /api/reviews/:reviewId/answer (advisor): the verdict and summary. */
 export const ReviewAnswerSchema = z.strictObject({
   verdict: z.enum(REVIEW_VERDICTS, { error: `must be one of ${REVIEW_VERDICTS.join(', ')}` }),
-  summary: z.string({ error: 'is required' }).trim().min(1, 'must not be empty').max(8000, 'must be at most 8000 characters'),
+  summary: z
+    .string({ error: 'is required' })
+    .trim()
+    .min(1, 'must not be empty')
+    .max(8000, 'must be at most 8000 characters'),
 })
 export type ReviewAnswer = z.infer<typeof ReviewAnswerSchema>
 
@@ -159,7 +184,11 @@ export const CommentSchema = z.object({
 })
 export type Comment = z.infer<typeof CommentSchema>
 
-export const PinTargetSchema = z.object({ kind: z.enum(PIN_KINDS), itemId: z.string().nullable(), label: z.string() })
+export const PinTargetSchema = z.object({
+  kind: z.enum(PIN_KINDS),
+  itemId: z.string().nullable(),
+  label: z.string(),
+})
 export type PinTarget = z.infer<typeof PinTargetSchema>
 
 /** What the signed-in user may do now (the page shows only these buttons). */

@@ -3,8 +3,10 @@ import { AdvisorListSchema, AdvisorProfileSchema, type AdvisorProfilePut } from 
 import { ApiError, http } from './http'
 
 export const advisorsApi = {
-  list: (q = '') => http.get(`/advisors${q ? `?q=${encodeURIComponent(q)}` : ''}`).then((b) => AdvisorListSchema.parse(b)),
-  get: (userId: string) => http.get(`/advisors/${encodeURIComponent(userId)}`).then((b) => AdvisorProfileSchema.parse(b)),
+  list: (q = '') =>
+    http.get(`/advisors${q ? `?q=${encodeURIComponent(q)}` : ''}`).then((b) => AdvisorListSchema.parse(b)),
+  get: (userId: string) =>
+    http.get(`/advisors/${encodeURIComponent(userId)}`).then((b) => AdvisorProfileSchema.parse(b)),
   /** My profile, or null before I save one. */
   mine: () =>
     http
@@ -14,5 +16,6 @@ export const advisorsApi = {
         if (e instanceof ApiError && e.status === 404) return null
         throw e
       }),
-  save: (input: AdvisorProfilePut) => http.put('/advisors/me', input).then((b) => AdvisorProfileSchema.parse(b)),
+  save: (input: AdvisorProfilePut) =>
+    http.put('/advisors/me', input).then((b) => AdvisorProfileSchema.parse(b)),
 }

@@ -18,7 +18,9 @@ export const reviewsApi = {
   get: (id: string) => http.get(r(id)).then(detail),
   create: (input: ReviewCreate) => http.post('/reviews', input).then(detail),
   checkout: (id: string) => http.post(`${r(id)}/checkout`).then((b) => CheckoutSchema.parse(b)),
-  comment: (id: string, input: CommentCreate) => http.post(`${r(id)}/comments`, input).then((b) => CommentSchema.parse(b)),
+  comment: (id: string, input: CommentCreate) =>
+    http.post(`${r(id)}/comments`, input).then((b) => CommentSchema.parse(b)),
   answer: (id: string, input: ReviewAnswer) => http.post(`${r(id)}/answer`, input).then(detail),
-  step: (id: string, step: 'start' | 'close' | 'cancel' | 'decline') => http.post(`${r(id)}/${step}`).then(detail),
+  step: (id: string, step: 'start' | 'close' | 'cancel' | 'decline') =>
+    http.post(`${r(id)}/${step}`).then(detail),
 }

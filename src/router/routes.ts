@@ -102,6 +102,7 @@ export const routes: RouteRecordRaw[] = [
       { path: 'advisors', name: 'advisors', component: () => import('../pages/AdvisorsPage.vue'), meta: { requiresAuth: true, title: 'Advisors' } },
       { path: 'advisors/me', name: 'advisor-me', component: () => import('../pages/AdvisorProfilePage.vue'), meta: { requiresAuth: true, title: 'My advisor profile' } },
       { path: 'reviews/:reviewId', name: 'review', component: () => import('../pages/ReviewPage.vue'), meta: { requiresAuth: true, title: 'Review' } },
+      { path: 'vehicles/:vehicleId/logs', name: 'vehicles.logs', component: () => import('../pages/LogsPage.vue'), meta: { requiresAuth: true, title: 'Logs' } },
       {
         path: ':pathMatch(.*)*',
         name: 'not-found',

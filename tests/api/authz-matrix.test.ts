@@ -25,18 +25,57 @@ type Role = (typeof ROLES)[number]
 type Expect = 'allow' | 403 | 404 | 401
 type Ids = Record<string, string>
 
-const BATTERY = (JSON.parse(readFileSync(new URL('../../data/examples/winter-week-lofoten.json', import.meta.url), 'utf8')) as { battery: unknown }).battery
+const BATTERY = (
+  JSON.parse(
+    readFileSync(new URL('../../data/examples/winter-week-lofoten.json', import.meta.url), 'utf8'),
+  ) as { battery: unknown }
+).battery
 
 /** Everyone reads, nobody outside. */
-const READ: Record<Role, Expect> = { owner: 'allow', editor: 'allow', viewer: 'allow', advisor: 'allow', nonMember: 404, signedOut: 401 }
+const READ: Record<Role, Expect> = {
+  owner: 'allow',
+  editor: 'allow',
+  viewer: 'allow',
+  advisor: 'allow',
+  nonMember: 404,
+  signedOut: 401,
+}
 /** Owner and editor write. */
-const WRITE: Record<Role, Expect> = { owner: 'allow', editor: 'allow', viewer: 403, advisor: 403, nonMember: 404, signedOut: 401 }
+const WRITE: Record<Role, Expect> = {
+  owner: 'allow',
+  editor: 'allow',
+  viewer: 403,
+  advisor: 403,
+  nonMember: 404,
+  signedOut: 401,
+}
 /** Owner only. */
-const OWNER: Record<Role, Expect> = { owner: 'allow', editor: 403, viewer: 403, advisor: 403, nonMember: 404, signedOut: 401 }
+const OWNER: Record<Role, Expect> = {
+  owner: 'allow',
+  editor: 403,
+  viewer: 403,
+  advisor: 403,
+  nonMember: 404,
+  signedOut: 401,
+}
 /** Only the review's own advisor (not a crew role): every crew role is refused. */
-const REVIEW_ADVISOR_ONLY: Record<Role, Expect> = { owner: 403, editor: 403, viewer: 403, advisor: 403, nonMember: 404, signedOut: 401 }
+const REVIEW_ADVISOR_ONLY: Record<Role, Expect> = {
+  owner: 403,
+  editor: 403,
+  viewer: 403,
+  advisor: 403,
+  nonMember: 404,
+  signedOut: 401,
+}
 /** Any signed-in account (the lists filter by membership). */
-const SIGNED_IN: Record<Role, Expect> = { owner: 'allow', editor: 'allow', viewer: 'allow', advisor: 'allow', nonMember: 'allow', signedOut: 401 }
+const SIGNED_IN: Record<Role, Expect> = {
+  owner: 'allow',
+  editor: 'allow',
+  viewer: 'allow',
+  advisor: 'allow',
+  nonMember: 'allow',
+  signedOut: 401,
+}
 
 interface Row {
   route: string
@@ -51,45 +90,72 @@ interface Row {
 let f: CrewFixture
 let base: Ids
 const owner = () => request(app)
-const version = async (path: string) => (await owner().get(path).set('Cookie', f.owner.cookie).expect(200)).body.version as number
+const version = async (path: string) =>
+  (await owner().get(path).set('Cookie', f.owner.cookie).expect(200)).body.version as number
 let n = 0
 const uniqueName = (p: string) => `${p} ${++n}`
 
 async function newAppliance(): Promise<Ids> {
-  const r = await owner().post(`/api/vehicles/${f.vehicleId}/appliances`).set('Cookie', f.owner.cookie).send({ ...FRIDGE, name: uniqueName('Fan') })
+  const r = await owner()
+    .post(`/api/vehicles/${f.vehicleId}/appliances`)
+    .set('Cookie', f.owner.cookie)
+    .send({ ...FRIDGE, name: uniqueName('Fan') })
   return { ...base, applianceId: r.body.id }
 }
 async function newSource(): Promise<Ids> {
-  const r = await owner().post(`/api/vehicles/${f.vehicleId}/sources`).set('Cookie', f.owner.cookie).send({ ...SOLAR, name: uniqueName('Panel') })
+  const r = await owner()
+    .post(`/api/vehicles/${f.vehicleId}/sources`)
+    .set('Cookie', f.owner.cookie)
+    .send({ ...SOLAR, name: uniqueName('Panel') })
   return { ...base, sourceId: r.body.id }
 }
 async function newScenario(): Promise<Ids> {
-  const r = await owner().post(`/api/vehicles/${f.vehicleId}/scenarios`).set('Cookie', f.owner.cookie).send({ name: uniqueName('Trip'), trip: TRIP })
+  const r = await owner()
+    .post(`/api/vehicles/${f.vehicleId}/scenarios`)
+    .set('Cookie', f.owner.cookie)
+    .send({ name: uniqueName('Trip'), trip: TRIP })
   return { ...base, scenarioId: r.body.id }
 }
 /** A fresh free review by the owner (each needs its own advisor: one open review per scenario and advisor). */
 async function newReview(): Promise<Ids> {
   const adv = await advisorWithProfile(ctx, app, '0', 'EUR', uniqueName('Advisor'))
-  const r = await owner().post('/api/reviews').set('Cookie', f.owner.cookie).send({ scenarioId: f.scenarioId, advisorId: adv.id, message: 'Please look' })
+  const r = await owner()
+    .post('/api/reviews')
+    .set('Cookie', f.owner.cookie)
+    .send({ scenarioId: f.scenarioId, advisorId: adv.id, message: 'Please look' })
   return { ...base, reviewId: r.body.id }
 }
 /** A fresh vehicle with the same crew, for rows that delete the vehicle or change the crew. */
 async function newCrew(): Promise<Ids> {
   const g = await crewFixture(ctx, app)
   crewOverride = g
-  return { ...base, vehicleId: g.vehicleId, scenarioId: g.scenarioId, viewerId: g.viewer.id, editorId: g.editor.id }
+  return {
+    ...base,
+    vehicleId: g.vehicleId,
+    scenarioId: g.scenarioId,
+    viewerId: g.viewer.id,
+    editorId: g.editor.id,
+  }
 }
 let crewOverride: CrewFixture | null = null
 
 const ROWS: Row[] = [
   // ---- vehicles and equipment (issue 5 routes) ----
   { route: 'GET /api/vehicles', method: 'get', path: () => '/api/vehicles', expect: SIGNED_IN },
-  { route: 'GET /api/vehicles/:id', method: 'get', path: (i) => `/api/vehicles/${i.vehicleId}`, expect: READ },
+  {
+    route: 'GET /api/vehicles/:id',
+    method: 'get',
+    path: (i) => `/api/vehicles/${i.vehicleId}`,
+    expect: READ,
+  },
   {
     route: 'PATCH /api/vehicles/:id',
     method: 'patch',
     path: (i) => `/api/vehicles/${i.vehicleId}`,
-    body: async (i) => ({ version: await version(`/api/vehicles/${i.vehicleId}`), notes: uniqueName('note') }),
+    body: async (i) => ({
+      version: await version(`/api/vehicles/${i.vehicleId}`),
+      notes: uniqueName('note'),
+    }),
     expect: WRITE,
   },
   {
@@ -99,7 +165,12 @@ const ROWS: Row[] = [
     path: (i) => `/api/vehicles/${i.vehicleId}?version=1`,
     expect: OWNER,
   },
-  { route: 'GET /api/vehicles/:id/battery', method: 'get', path: (i) => `/api/vehicles/${i.vehicleId}/battery`, expect: READ },
+  {
+    route: 'GET /api/vehicles/:id/battery',
+    method: 'get',
+    path: (i) => `/api/vehicles/${i.vehicleId}/battery`,
+    expect: READ,
+  },
   {
     route: 'PUT /api/vehicles/:id/battery',
     method: 'put',
@@ -107,7 +178,12 @@ const ROWS: Row[] = [
     body: async (i) => ({ version: await version(`/api/vehicles/${i.vehicleId}/battery`), battery: BATTERY }),
     expect: WRITE,
   },
-  { route: 'GET /api/vehicles/:id/inverter', method: 'get', path: (i) => `/api/vehicles/${i.vehicleId}/inverter`, expect: READ },
+  {
+    route: 'GET /api/vehicles/:id/inverter',
+    method: 'get',
+    path: (i) => `/api/vehicles/${i.vehicleId}/inverter`,
+    expect: READ,
+  },
   {
     route: 'PUT /api/vehicles/:id/inverter',
     method: 'put',
@@ -115,8 +191,18 @@ const ROWS: Row[] = [
     body: async (i) => ({ version: await version(`/api/vehicles/${i.vehicleId}/inverter`), inverter: null }),
     expect: WRITE,
   },
-  { route: 'GET /api/vehicles/:id/appliances', method: 'get', path: (i) => `/api/vehicles/${i.vehicleId}/appliances`, expect: READ },
-  { route: 'GET /api/vehicles/:id/appliances.csv', method: 'get', path: (i) => `/api/vehicles/${i.vehicleId}/appliances.csv`, expect: READ },
+  {
+    route: 'GET /api/vehicles/:id/appliances',
+    method: 'get',
+    path: (i) => `/api/vehicles/${i.vehicleId}/appliances`,
+    expect: READ,
+  },
+  {
+    route: 'GET /api/vehicles/:id/appliances.csv',
+    method: 'get',
+    path: (i) => `/api/vehicles/${i.vehicleId}/appliances.csv`,
+    expect: READ,
+  },
   {
     route: 'POST /api/vehicles/:id/appliances',
     method: 'post',
@@ -143,10 +229,18 @@ const ROWS: Row[] = [
     route: 'POST /api/vehicles/:id/appliances/import',
     method: 'post',
     path: (i) => `/api/vehicles/${i.vehicleId}/appliances/import`,
-    body: () => ({ csv: 'name,category,supply,powerW,quantity,hoursPerDay,startHour,endHour\nPump,water,dc,40,1,0.5,7,22\n', confirm: false }),
+    body: () => ({
+      csv: 'name,category,supply,powerW,quantity,hoursPerDay,startHour,endHour\nPump,water,dc,40,1,0.5,7,22\n',
+      confirm: false,
+    }),
     expect: WRITE,
   },
-  { route: 'GET /api/vehicles/:id/sources', method: 'get', path: (i) => `/api/vehicles/${i.vehicleId}/sources`, expect: READ },
+  {
+    route: 'GET /api/vehicles/:id/sources',
+    method: 'get',
+    path: (i) => `/api/vehicles/${i.vehicleId}/sources`,
+    expect: READ,
+  },
   {
     route: 'POST /api/vehicles/:id/sources',
     method: 'post',
@@ -169,10 +263,20 @@ const ROWS: Row[] = [
     path: (i) => `/api/vehicles/${i.vehicleId}/sources/${i.sourceId}?version=1`,
     expect: WRITE,
   },
-  { route: 'GET /api/vehicles/:id/history', method: 'get', path: (i) => `/api/vehicles/${i.vehicleId}/history`, expect: READ },
+  {
+    route: 'GET /api/vehicles/:id/history',
+    method: 'get',
+    path: (i) => `/api/vehicles/${i.vehicleId}/history`,
+    expect: READ,
+  },
   // ---- scenarios ----
   { route: 'GET /api/scenarios', method: 'get', path: () => '/api/scenarios', expect: SIGNED_IN },
-  { route: 'GET /api/vehicles/:id/scenarios', method: 'get', path: (i) => `/api/vehicles/${i.vehicleId}/scenarios`, expect: READ },
+  {
+    route: 'GET /api/vehicles/:id/scenarios',
+    method: 'get',
+    path: (i) => `/api/vehicles/${i.vehicleId}/scenarios`,
+    expect: READ,
+  },
   {
     route: 'POST /api/vehicles/:id/scenarios',
     method: 'post',
@@ -180,8 +284,18 @@ const ROWS: Row[] = [
     body: () => ({ name: uniqueName('Trip'), trip: TRIP }),
     expect: WRITE,
   },
-  { route: 'GET /api/scenarios/:id', method: 'get', path: (i) => `/api/scenarios/${i.scenarioId}`, expect: READ },
-  { route: 'GET /api/scenarios/:id/plan', method: 'get', path: (i) => `/api/scenarios/${i.scenarioId}/plan`, expect: READ },
+  {
+    route: 'GET /api/scenarios/:id',
+    method: 'get',
+    path: (i) => `/api/scenarios/${i.scenarioId}`,
+    expect: READ,
+  },
+  {
+    route: 'GET /api/scenarios/:id/plan',
+    method: 'get',
+    path: (i) => `/api/scenarios/${i.scenarioId}/plan`,
+    expect: READ,
+  },
   {
     route: 'PATCH /api/scenarios/:id',
     method: 'patch',
@@ -204,7 +318,12 @@ const ROWS: Row[] = [
     expect: WRITE,
   },
   // ---- crew ----
-  { route: 'GET /api/vehicles/:id/crew', method: 'get', path: (i) => `/api/vehicles/${i.vehicleId}/crew`, expect: READ },
+  {
+    route: 'GET /api/vehicles/:id/crew',
+    method: 'get',
+    path: (i) => `/api/vehicles/${i.vehicleId}/crew`,
+    expect: READ,
+  },
   {
     route: 'POST /api/vehicles/:id/invitations',
     method: 'post',
@@ -240,7 +359,14 @@ const ROWS: Row[] = [
     prepare: newCrew,
     path: (i) => `/api/vehicles/${i.vehicleId}/leave`,
     // the owner passes authorization and is then told to hand over first (400 owner_cannot_leave)
-    expect: { owner: 'allow', editor: 'allow', viewer: 'allow', advisor: 'allow', nonMember: 404, signedOut: 401 },
+    expect: {
+      owner: 'allow',
+      editor: 'allow',
+      viewer: 'allow',
+      advisor: 'allow',
+      nonMember: 404,
+      signedOut: 401,
+    },
   },
   // ---- reviews and comments ----
   { route: 'GET /api/reviews', method: 'get', path: () => '/api/reviews', expect: SIGNED_IN },
@@ -262,10 +388,31 @@ const ROWS: Row[] = [
     body: (i) => ({ body: 'About the fridge', pin: { kind: 'appliance', itemId: i.fridgeId } }),
     expect: WRITE,
   },
-  { route: 'POST /api/reviews/:id/checkout', method: 'post', path: (i) => `/api/reviews/${i.reviewId}/checkout`, expect: WRITE },
-  { route: 'POST /api/reviews/:id/cancel', method: 'post', prepare: newReview, path: (i) => `/api/reviews/${i.reviewId}/cancel`, expect: WRITE },
-  { route: 'POST /api/reviews/:id/close', method: 'post', path: (i) => `/api/reviews/${i.reviewId}/close`, expect: WRITE },
-  { route: 'POST /api/reviews/:id/start', method: 'post', path: (i) => `/api/reviews/${i.reviewId}/start`, expect: REVIEW_ADVISOR_ONLY },
+  {
+    route: 'POST /api/reviews/:id/checkout',
+    method: 'post',
+    path: (i) => `/api/reviews/${i.reviewId}/checkout`,
+    expect: WRITE,
+  },
+  {
+    route: 'POST /api/reviews/:id/cancel',
+    method: 'post',
+    prepare: newReview,
+    path: (i) => `/api/reviews/${i.reviewId}/cancel`,
+    expect: WRITE,
+  },
+  {
+    route: 'POST /api/reviews/:id/close',
+    method: 'post',
+    path: (i) => `/api/reviews/${i.reviewId}/close`,
+    expect: WRITE,
+  },
+  {
+    route: 'POST /api/reviews/:id/start',
+    method: 'post',
+    path: (i) => `/api/reviews/${i.reviewId}/start`,
+    expect: REVIEW_ADVISOR_ONLY,
+  },
   {
     route: 'POST /api/reviews/:id/answer',
     method: 'post',
@@ -273,7 +420,12 @@ const ROWS: Row[] = [
     body: () => ({ verdict: 'sound', summary: 'ok' }),
     expect: REVIEW_ADVISOR_ONLY,
   },
-  { route: 'POST /api/reviews/:id/decline', method: 'post', path: (i) => `/api/reviews/${i.reviewId}/decline`, expect: REVIEW_ADVISOR_ONLY },
+  {
+    route: 'POST /api/reviews/:id/decline',
+    method: 'post',
+    path: (i) => `/api/reviews/${i.reviewId}/decline`,
+    expect: REVIEW_ADVISOR_ONLY,
+  },
 ]
 
 const cases = ROWS.flatMap((row) => ROLES.map((role) => ({ ...row, role, want: row.expect[role] })))
@@ -281,8 +433,19 @@ const cases = ROWS.flatMap((row) => ROLES.map((role) => ({ ...row, role, want: r
 beforeAll(async () => {
   f = await crewFixture(ctx, app)
   const adv = await advisorWithProfile(ctx, app, '0', 'EUR', 'Matrix Advisor')
-  const r = await owner().post('/api/reviews').set('Cookie', f.owner.cookie).send({ scenarioId: f.scenarioId, advisorId: adv.id, message: 'Matrix' }).expect(201)
-  base = { vehicleId: f.vehicleId, scenarioId: f.scenarioId, fridgeId: f.fridgeId, viewerId: f.viewer.id, editorId: f.editor.id, reviewId: r.body.id }
+  const r = await owner()
+    .post('/api/reviews')
+    .set('Cookie', f.owner.cookie)
+    .send({ scenarioId: f.scenarioId, advisorId: adv.id, message: 'Matrix' })
+    .expect(201)
+  base = {
+    vehicleId: f.vehicleId,
+    scenarioId: f.scenarioId,
+    fridgeId: f.fridgeId,
+    viewerId: f.viewer.id,
+    editorId: f.editor.id,
+    reviewId: r.body.id,
+  }
 })
 
 describe('authorization matrix', () => {
@@ -290,7 +453,14 @@ describe('authorization matrix', () => {
     crewOverride = null
     const ids = prepare ? await prepare() : base
     const who = crewOverride ?? f
-    const cookie = role === 'signedOut' ? null : role === 'nonMember' ? who.outsider.cookie : role === 'advisor' ? who.advisorMember.cookie : who[role].cookie
+    const cookie =
+      role === 'signedOut'
+        ? null
+        : role === 'nonMember'
+          ? who.outsider.cookie
+          : role === 'advisor'
+            ? who.advisorMember.cookie
+            : who[role].cookie
     let req = request(app)[method](path(ids))
     if (cookie) req = req.set('Cookie', cookie)
     const res = body ? await req.send((await body(ids)) as object) : await req

@@ -6,7 +6,15 @@ import { describe, it, expect, beforeAll, afterAll } from 'vitest'
 import request from 'supertest'
 import { eq } from 'drizzle-orm'
 import { startTestServer, type RunningServer } from '../support/server'
-import { advisorWithProfile, crewFixture, fakePaymentsUrl, lastMail, mailCount, signedEvent, type CrewFixture } from '../support/sharing'
+import {
+  advisorWithProfile,
+  crewFixture,
+  fakePaymentsUrl,
+  lastMail,
+  mailCount,
+  signedEvent,
+  type CrewFixture,
+} from '../support/sharing'
 import { processedPaymentEvents, reviewComments, reviewPayments, reviews } from '../../server/db/schema/index'
 import type { TestUser } from '../support/factories'
 
@@ -27,7 +35,11 @@ describe('paid reviews and payment webhooks', () => {
     const res = await api()
       .post('/api/reviews')
       .set('Cookie', f.owner.cookie)
-      .send({ scenarioId: f.scenarioId, advisorId: advisor.id, message: 'Is 200 Ah enough for a week in Lofoten?' })
+      .send({
+        scenarioId: f.scenarioId,
+        advisorId: advisor.id,
+        message: 'Is 200 Ah enough for a week in Lofoten?',
+      })
     expect(res.status).toBe(201)
     // one open review per scenario and advisor: close the earlier ones from this file first
     return res.body.id as string
@@ -44,7 +56,8 @@ describe('paid reviews and payment webhooks', () => {
     return { url, sessionId: url.split('/').pop()! }
   }
 
-  const review = async (id: string) => (await server.ctx.db.select().from(reviews).where(eq(reviews.id, id)))[0]!
+  const review = async (id: string) =>
+    (await server.ctx.db.select().from(reviews).where(eq(reviews.id, id)))[0]!
 
   it('a fee is charged in minor units through hosted checkout; paying opens the review exactly once', async () => {
     const id = await requestReview()
@@ -70,23 +83,40 @@ describe('paid reviews and payment webhooks', () => {
     const opened = await review(id)
     expect(opened.state).toBe('requested')
     expect(opened.paymentState).toBe('paid')
-    expect((await lastMail(server.ctx, advisor.email, 'review_requested'))?.textBody).toContain('Is 200 Ah enough')
+    expect((await lastMail(server.ctx, advisor.email, 'review_requested'))?.textBody).toContain(
+      'Is 200 Ah enough',
+    )
     expect(await mailCount(server.ctx, f.owner.email, 'review_paid')).toBe(1)
     // now the advisor reads the vehicle (read-only)
     await api().get(`/api/vehicles/${f.vehicleId}/crew`).set('Cookie', advisor.cookie).expect(200)
 
     // replay: the fake delivers the very same event again
-    const events = (await fetch(`${fakePaymentsUrl()}/_fake/events`).then((r) => r.json())).data as { id: string; type: string; url: string }[]
-    const completed = events.filter((e) => e.type === 'checkout.session.completed' && e.url.startsWith(server.url)).pop()!
-    const commentsBefore = (await server.ctx.db.select().from(reviewComments).where(eq(reviewComments.reviewId, id))).length
-    const replay = await fetch(`${fakePaymentsUrl()}/_fake/events/${completed.id}/resend`, { method: 'POST' }).then((r) => r.json())
+    const events = (await fetch(`${fakePaymentsUrl()}/_fake/events`).then((r) => r.json())).data as {
+      id: string
+      type: string
+      url: string
+    }[]
+    const completed = events
+      .filter((e) => e.type === 'checkout.session.completed' && e.url.startsWith(server.url))
+      .pop()!
+    const commentsBefore = (
+      await server.ctx.db.select().from(reviewComments).where(eq(reviewComments.reviewId, id))
+    ).length
+    const replay = await fetch(`${fakePaymentsUrl()}/_fake/events/${completed.id}/resend`, {
+      method: 'POST',
+    }).then((r) => r.json())
     expect(replay.delivered).toBe(true)
     const after = await review(id)
     expect(after.version).toBe(opened.version)
     expect(after.updatedAt.getTime()).toBe(opened.updatedAt.getTime())
-    expect((await server.ctx.db.select().from(reviewComments).where(eq(reviewComments.reviewId, id))).length).toBe(commentsBefore)
+    expect(
+      (await server.ctx.db.select().from(reviewComments).where(eq(reviewComments.reviewId, id))).length,
+    ).toBe(commentsBefore)
     expect(await mailCount(server.ctx, advisor.email, 'review_requested')).toBe(1)
-    const processed = await server.ctx.db.select().from(processedPaymentEvents).where(eq(processedPaymentEvents.eventId, completed.id))
+    const processed = await server.ctx.db
+      .select()
+      .from(processedPaymentEvents)
+      .where(eq(processedPaymentEvents.eventId, completed.id))
     expect(processed).toHaveLength(1)
 
     // cancelling before the advisor starts refunds through the SDK; the refund event marks it refunded
@@ -112,7 +142,11 @@ describe('paid reviews and payment webhooks', () => {
     expect(r.state).toBe('awaiting_payment')
     expect(r.paymentState).toBe('failed')
     await api().get(`/api/vehicles/${f.vehicleId}/crew`).set('Cookie', advisor.cookie).expect(404)
-    await api().post(`/api/reviews/${id}/comments`).set('Cookie', advisor.cookie).send({ body: 'hello' }).expect(409)
+    await api()
+      .post(`/api/reviews/${id}/comments`)
+      .set('Cookie', advisor.cookie)
+      .send({ body: 'hello' })
+      .expect(409)
     expect(await mailCount(server.ctx, f.owner.email, 'review_payment_failed')).toBeGreaterThanOrEqual(1)
     // a second attempt gets a fresh session
     const again = await checkout(id)
@@ -124,29 +158,64 @@ describe('paid reviews and payment webhooks', () => {
   it('refuses a tampered signature, a wrong secret and a missing signature, changing nothing', async () => {
     const id = await requestReview()
     const { sessionId } = await checkout(id)
-    const object = { id: sessionId, object: 'checkout.session', payment_status: 'paid', payment_intent: 'pi_test_forged', metadata: { reviewId: id } }
+    const object = {
+      id: sessionId,
+      object: 'checkout.session',
+      payment_status: 'paid',
+      payment_intent: 'pi_test_forged',
+      metadata: { reviewId: id },
+    }
     const good = signedEvent('checkout.session.completed', object)
     const tampered = good.payload.replace('"paid"', '"paid" ')
     for (const [body, sig] of [
       [tampered, good.signature],
-      [good.payload, signedEvent('checkout.session.completed', object, 'whsec_someone_else').signature.replace(/t=\d+/, good.signature.match(/t=\d+/)![0])],
-      [good.payload, good.signature.replace(/v1=([0-9a-f])/, (_m, c: string) => `v1=${c === 'a' ? 'b' : 'a'}`)],
+      [
+        good.payload,
+        signedEvent('checkout.session.completed', object, 'whsec_someone_else').signature.replace(
+          /t=\d+/,
+          good.signature.match(/t=\d+/)![0],
+        ),
+      ],
+      [
+        good.payload,
+        good.signature.replace(/v1=([0-9a-f])/, (_m, c: string) => `v1=${c === 'a' ? 'b' : 'a'}`),
+      ],
     ] as const) {
-      const res = await api().post('/api/webhooks/payments').set('content-type', 'application/json').set('stripe-signature', sig).send(body)
+      const res = await api()
+        .post('/api/webhooks/payments')
+        .set('content-type', 'application/json')
+        .set('stripe-signature', sig)
+        .send(body)
       expect(res.status).toBe(400)
       expect(res.body.error.code).toBe('bad_signature')
     }
-    const none = await api().post('/api/webhooks/payments').set('content-type', 'application/json').send(good.payload)
+    const none = await api()
+      .post('/api/webhooks/payments')
+      .set('content-type', 'application/json')
+      .send(good.payload)
     expect(none.status).toBe(400)
     expect((await review(id)).state).toBe('awaiting_payment')
-    expect(await server.ctx.db.select().from(processedPaymentEvents).where(eq(processedPaymentEvents.eventId, good.id))).toHaveLength(0)
+    expect(
+      await server.ctx.db
+        .select()
+        .from(processedPaymentEvents)
+        .where(eq(processedPaymentEvents.eventId, good.id)),
+    ).toHaveLength(0)
 
     // the same event correctly signed is accepted once, then a replay is a no-op
-    const first = await api().post('/api/webhooks/payments').set('content-type', 'application/json').set('stripe-signature', good.signature).send(good.payload)
+    const first = await api()
+      .post('/api/webhooks/payments')
+      .set('content-type', 'application/json')
+      .set('stripe-signature', good.signature)
+      .send(good.payload)
     expect(first.status).toBe(200)
     expect(first.body).toMatchObject({ received: true, duplicate: false, outcome: 'opened' })
     const opened = await review(id)
-    const second = await api().post('/api/webhooks/payments').set('content-type', 'application/json').set('stripe-signature', good.signature).send(good.payload)
+    const second = await api()
+      .post('/api/webhooks/payments')
+      .set('content-type', 'application/json')
+      .set('stripe-signature', good.signature)
+      .send(good.payload)
     expect(second.body).toMatchObject({ received: true, duplicate: true })
     const again = await review(id)
     expect(again.version).toBe(opened.version)
@@ -154,8 +223,17 @@ describe('paid reviews and payment webhooks', () => {
   })
 
   it('an event for an unknown checkout session is recorded and ignored', async () => {
-    const unknown = signedEvent('checkout.session.completed', { id: 'cs_test_nobody', object: 'checkout.session', payment_status: 'paid', payment_intent: 'pi_x' })
-    const res = await api().post('/api/webhooks/payments').set('content-type', 'application/json').set('stripe-signature', unknown.signature).send(unknown.payload)
+    const unknown = signedEvent('checkout.session.completed', {
+      id: 'cs_test_nobody',
+      object: 'checkout.session',
+      payment_status: 'paid',
+      payment_intent: 'pi_x',
+    })
+    const res = await api()
+      .post('/api/webhooks/payments')
+      .set('content-type', 'application/json')
+      .set('stripe-signature', unknown.signature)
+      .send(unknown.payload)
     expect(res.body).toMatchObject({ received: true, outcome: 'unknown session' })
   })
 })

@@ -22,13 +22,32 @@ describe('advisor story', () => {
     member = await createUser(server.ctx, { displayName: 'Tomas Brekke' })
     advisor = await createUser(server.ctx, { displayName: 'Halvor Strand', role: 'advisor' })
     const api = request(server.url)
-    const v = await api.post('/api/vehicles').set('Cookie', member.cookie).send({ name: 'Transit “Kveldssol”', kind: 'van', systemVoltageV: 12 })
-    await api.post(`/api/vehicles/${v.body.id}/appliances`).set('Cookie', member.cookie).send(FRIDGE).expect(201)
-    await api.post(`/api/vehicles/${v.body.id}/scenarios`).set('Cookie', member.cookie).send({ name: 'Dark week in February', trip: TRIP }).expect(201)
+    const v = await api
+      .post('/api/vehicles')
+      .set('Cookie', member.cookie)
+      .send({ name: 'Transit “Kveldssol”', kind: 'van', systemVoltageV: 12 })
+    await api
+      .post(`/api/vehicles/${v.body.id}/appliances`)
+      .set('Cookie', member.cookie)
+      .send(FRIDGE)
+      .expect(201)
+    await api
+      .post(`/api/vehicles/${v.body.id}/scenarios`)
+      .set('Cookie', member.cookie)
+      .send({ name: 'Dark week in February', trip: TRIP })
+      .expect(201)
     await api
       .put('/api/advisors/me')
       .set('Cookie', advisor.cookie)
-      .send({ version: 0, headline: 'Auto-electrician, vans', bio: 'Wiring vans since 2009.', specialities: ['Winter use'], feeAmount: '45.00', currency: 'EUR', accepting: true })
+      .send({
+        version: 0,
+        headline: 'Auto-electrician, vans',
+        bio: 'Wiring vans since 2009.',
+        specialities: ['Winter use'],
+        feeAmount: '45.00',
+        currency: 'EUR',
+        accepting: true,
+      })
       .expect(200)
   })
   afterAll(async () => {
@@ -49,7 +68,10 @@ describe('advisor story', () => {
     await card.locator('[data-test="ask-review"]').click()
     await m.page.locator('[data-test="ask-scenario"]').click()
     await m.page.getByRole('option', { name: /Dark week in February/ }).click()
-    await m.page.locator('[data-test="ask-message"] textarea, textarea[data-test="ask-message"]').first().fill('Will the fridge keep going through a dark week at −9 °C?')
+    await m.page
+      .locator('[data-test="ask-message"] textarea, textarea[data-test="ask-message"]')
+      .first()
+      .fill('Will the fridge keep going through a dark week at −9 °C?')
     await screenshot(m.page, 'advisor-2-ask')
     await m.page.locator('[data-test="ask-send"]').click()
 
@@ -75,9 +97,15 @@ describe('advisor story', () => {
     await a.page.locator('[data-test^="review-"]').first().click()
     await a.page.locator('[data-test="comment-pin"]').click()
     await a.page.getByRole('option', { name: 'Appliance: Compressor fridge 50 L' }).click()
-    await a.page.locator('[data-test="comment-body"] textarea, textarea[data-test="comment-body"]').first().fill('At −9 °C the compressor runs less than 25 % of the time; your estimate is on the safe side.')
+    await a.page
+      .locator('[data-test="comment-body"] textarea, textarea[data-test="comment-body"]')
+      .first()
+      .fill('At −9 °C the compressor runs less than 25 % of the time; your estimate is on the safe side.')
     await a.page.locator('[data-test="comment-send"]').click()
-    await a.page.locator('[data-test="comment"]').filter({ hasText: 'About: Compressor fridge 50 L' }).waitFor()
+    await a.page
+      .locator('[data-test="comment"]')
+      .filter({ hasText: 'About: Compressor fridge 50 L' })
+      .waitFor()
     await a.page.locator('[data-test="state-in_progress"]').waitFor()
     await screenshot(a.page, 'advisor-5-commented-phone')
 
@@ -86,11 +114,15 @@ describe('advisor story', () => {
     await m.page.locator('[data-test="unread"]').first().waitFor()
     await screenshot(m.page, 'advisor-6-inbox')
     await m.page.goto(reviewUrl)
-    const comment = m.page.locator('[data-test="comment"]').filter({ hasText: 'About: Compressor fridge 50 L' })
+    const comment = m.page
+      .locator('[data-test="comment"]')
+      .filter({ hasText: 'About: Compressor fridge 50 L' })
     await comment.waitFor()
     expect(await comment.innerText()).toContain('Halvor Strand')
     await screenshot(m.page, 'advisor-7-member-sees-comment')
-    const mail = await waitForMail(member.email, (x) => x.subject.includes('commented on “Compressor fridge 50 L”'))
+    const mail = await waitForMail(member.email, (x) =>
+      x.subject.includes('commented on “Compressor fridge 50 L”'),
+    )
     expect(mail.text).toContain('your estimate is on the safe side')
     expect(mail.text).toContain(reviewUrl)
     await m.context.close()

@@ -22,9 +22,16 @@ describe('couple story', () => {
     browser = await launchBrowser()
     owner = await createUser(server.ctx, { displayName: 'Ingrid Aas' })
     partner = await createUser(server.ctx, { displayName: 'Sigrid Lund', password: 'two-of-us-in-a-van' })
-    const v = await request(server.url).post('/api/vehicles').set('Cookie', owner.cookie).send({ name: 'Crafter “Nordlys”', kind: 'van', systemVoltageV: 12 })
+    const v = await request(server.url)
+      .post('/api/vehicles')
+      .set('Cookie', owner.cookie)
+      .send({ name: 'Crafter “Nordlys”', kind: 'van', systemVoltageV: 12 })
     vehicleId = v.body.id
-    await request(server.url).post(`/api/vehicles/${vehicleId}/appliances`).set('Cookie', owner.cookie).send(FRIDGE).expect(201)
+    await request(server.url)
+      .post(`/api/vehicles/${vehicleId}/appliances`)
+      .set('Cookie', owner.cookie)
+      .send(FRIDGE)
+      .expect(201)
   })
   afterAll(async () => {
     await browser?.close()
@@ -38,7 +45,10 @@ describe('couple story', () => {
     await o.context.addCookies([sessionCookie(owner, server.url)])
     await o.page.goto(`${server.url}/vehicles/${vehicleId}/crew`)
     await o.page.getByRole('heading', { name: 'Crew of Crafter “Nordlys”' }).waitFor()
-    await o.page.locator('[data-test="invite-email"] input, input[data-test="invite-email"]').first().fill(partner.email)
+    await o.page
+      .locator('[data-test="invite-email"] input, input[data-test="invite-email"]')
+      .first()
+      .fill(partner.email)
     await o.page.locator('[data-test="invite-send"]').click()
     await o.page.locator('[data-test="invitation"]').filter({ hasText: partner.email }).waitFor()
     await screenshot(o.page, 'couple-1-owner-invited')
@@ -57,7 +67,10 @@ describe('couple story', () => {
     await p.page.locator('[data-test="invite-sign-in"]').click()
     await p.page.waitForURL(/\/sign-in\?next=/)
     await p.page.locator('[data-test="email"] input, input[data-test="email"]').first().fill(partner.email)
-    await p.page.locator('[data-test="password"] input, input[data-test="password"]').first().fill(partner.password)
+    await p.page
+      .locator('[data-test="password"] input, input[data-test="password"]')
+      .first()
+      .fill(partner.password)
     await p.page.locator('[data-test="submit"]').click()
     await p.page.waitForURL(/\/invitations\//)
     await p.page.locator('[data-test="invite-accept"]').click()
@@ -69,7 +82,9 @@ describe('couple story', () => {
     const name = p.page.locator('[data-test="vehicle-name"] input, input[data-test="vehicle-name"]').first()
     await name.fill('Crafter “Nordlys” (winter setup)')
     await p.page.locator('[data-test="vehicle-save"]').click()
-    await expect.poll(() => p.page.locator('[data-test="vehicle-title"]').innerText()).toContain('winter setup')
+    await expect
+      .poll(() => p.page.locator('[data-test="vehicle-title"]').innerText())
+      .toContain('winter setup')
 
     // --- both see who changed what ---
     await p.page.goto(`${server.url}/vehicles/${vehicleId}/crew`)
@@ -81,8 +96,12 @@ describe('couple story', () => {
     const oh = o.page.locator('[data-test="history-entry"]')
     await oh.filter({ hasText: 'Sigrid Lund joined as editor' }).waitFor()
     const ownerSees = await oh.allInnerTexts()
-    expect(ownerSees.some((t) => t.includes(`Invited ${partner.email} as editor`) && t.includes('Ingrid Aas'))).toBe(true)
-    const edit = ownerSees.find((t) => /vehicle/i.test(t) && t.includes('Sigrid Lund') && !t.includes('joined'))
+    expect(
+      ownerSees.some((t) => t.includes(`Invited ${partner.email} as editor`) && t.includes('Ingrid Aas')),
+    ).toBe(true)
+    const edit = ownerSees.find(
+      (t) => /vehicle/i.test(t) && t.includes('Sigrid Lund') && !t.includes('joined'),
+    )
     expect(edit, ownerSees.join('\n')).toBeDefined()
     await o.page.locator('[data-test="member-editor"]').filter({ hasText: 'Sigrid Lund' }).waitFor()
     await screenshot(o.page, 'couple-4-owner-history')

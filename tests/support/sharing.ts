@@ -73,7 +73,10 @@ export async function crewFixture(ctx: AppContext, app: Target): Promise<CrewFix
     createUser(ctx, { displayName: 'Olav Outsider' }),
   ])
   const v = ok<{ id: string }>(
-    await request(app).post('/api/vehicles').set('Cookie', owner.cookie).send({ name: 'Sprinter “Fjordlys”', kind: 'van', systemVoltageV: 12 }),
+    await request(app)
+      .post('/api/vehicles')
+      .set('Cookie', owner.cookie)
+      .send({ name: 'Sprinter “Fjordlys”', kind: 'van', systemVoltageV: 12 }),
     'create vehicle',
   )
   const fridge = ok<{ id: string }>(
@@ -85,7 +88,10 @@ export async function crewFixture(ctx: AppContext, app: Target): Promise<CrewFix
     'create source',
   )
   const sc = ok<{ id: string }>(
-    await request(app).post(`/api/vehicles/${v.id}/scenarios`).set('Cookie', owner.cookie).send({ name: 'Winter week, Lofoten', trip: TRIP }),
+    await request(app)
+      .post(`/api/vehicles/${v.id}/scenarios`)
+      .set('Cookie', owner.cookie)
+      .send({ name: 'Winter week, Lofoten', trip: TRIP }),
     'create scenario',
   )
   await ctx.db.insert(vehicleMemberships).values([
@@ -93,17 +99,41 @@ export async function crewFixture(ctx: AppContext, app: Target): Promise<CrewFix
     { vehicleId: v.id, userId: viewer.id, role: 'viewer' },
     { vehicleId: v.id, userId: advisorMember.id, role: 'advisor' },
   ])
-  return { owner, editor, viewer, advisorMember, outsider, vehicleId: v.id, scenarioId: sc.id, fridgeId: fridge.id, sourceId: source.id }
+  return {
+    owner,
+    editor,
+    viewer,
+    advisorMember,
+    outsider,
+    vehicleId: v.id,
+    scenarioId: sc.id,
+    fridgeId: fridge.id,
+    sourceId: source.id,
+  }
 }
 
 /** An advisor account with a directory profile. `fee` "0" reviews for free. */
-export async function advisorWithProfile(ctx: AppContext, app: Target, fee = '45.00', currency = 'EUR', displayName = 'Halvor Installer'): Promise<TestUser> {
+export async function advisorWithProfile(
+  ctx: AppContext,
+  app: Target,
+  fee = '45.00',
+  currency = 'EUR',
+  displayName = 'Halvor Installer',
+): Promise<TestUser> {
   const adv = await createUser(ctx, { role: 'advisor', displayName })
   ok(
     await request(app)
       .put('/api/advisors/me')
       .set('Cookie', adv.cookie)
-      .send({ version: 0, headline: 'Van electrics', bio: 'Twenty years of wiring vans and boats.', specialities: ['LFP packs'], feeAmount: fee, currency, accepting: true }),
+      .send({
+        version: 0,
+        headline: 'Van electrics',
+        bio: 'Twenty years of wiring vans and boats.',
+        specialities: ['LFP packs'],
+        feeAmount: fee,
+        currency,
+        accepting: true,
+      }),
     'advisor profile',
   )
   return adv
@@ -131,8 +161,20 @@ export async function mailCount(ctx: AppContext, to: string, kind?: string): Pro
 const signer = new Stripe('sk_test_signer', { telemetry: false })
 
 /** A payment event as the provider sends it, with a valid signature for `secret`. */
-export function signedEvent(type: string, object: Record<string, unknown>, secret = 'whsec_ohmward_local', id = `evt_test_${Math.random().toString(36).slice(2)}`) {
-  const payload = JSON.stringify({ id, object: 'event', type, created: Math.floor(Date.now() / 1000), livemode: false, data: { object } })
+export function signedEvent(
+  type: string,
+  object: Record<string, unknown>,
+  secret = 'whsec_ohmward_local',
+  id = `evt_test_${Math.random().toString(36).slice(2)}`,
+) {
+  const payload = JSON.stringify({
+    id,
+    object: 'event',
+    type,
+    created: Math.floor(Date.now() / 1000),
+    livemode: false,
+    data: { object },
+  })
   return { id, payload, signature: signer.webhooks.generateTestHeaderString({ payload, secret }) }
 }
 
@@ -150,7 +192,11 @@ export function sessionCookie(user: { cookie: string }, url: string) {
 }
 
 /** Wait for a mail to arrive at the local fake SMTP server (read through its HTTP API). */
-export async function waitForMail(to: string, match: (m: { subject: string; text: string }) => boolean, timeoutMs = 15_000) {
+export async function waitForMail(
+  to: string,
+  match: (m: { subject: string; text: string }) => boolean,
+  timeoutMs = 15_000,
+) {
   const api = process.env.OHMWARD_FAKE_MAIL_API
   if (!api) throw new Error('OHMWARD_FAKE_MAIL_API is not set: run the tests with npm test')
   const until = Date.now() + timeoutMs

@@ -3,7 +3,13 @@ import { reviews } from './reviews'
 
 const tsz = (name: string) => timestamp(name, { withTimezone: true, mode: 'date' })
 
-export const paymentStatus = pgEnum('payment_status', ['pending', 'paid', 'failed', 'refund_pending', 'refunded'])
+export const paymentStatus = pgEnum('payment_status', [
+  'pending',
+  'paid',
+  'failed',
+  'refund_pending',
+  'refunded',
+])
 
 /**
  * One hosted checkout per attempt to pay a review (issue 8). Amounts in the currency's minor units, as the

@@ -95,7 +95,13 @@ export const reviews = pgTable(
 )
 
 /** What a comment is pinned to. `result` items are named results of the scenario's outlook. */
-export const reviewPinKind = pgEnum('review_pin_kind', ['general', 'appliance', 'source', 'battery', 'result'])
+export const reviewPinKind = pgEnum('review_pin_kind', [
+  'general',
+  'appliance',
+  'source',
+  'battery',
+  'result',
+])
 
 /** The thread: comments by either side, and event lines ("Payment received") written by the server. */
 export const reviewComments = pgTable(

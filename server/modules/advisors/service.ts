@@ -72,7 +72,9 @@ export async function putMyProfile(
   input: Omit<AdvisorProfilePut, 'feeAmount'> & { feeAmount: string },
 ): Promise<AdvisorProfile> {
   if (user.role !== 'advisor') {
-    throw forbidden('Only advisor accounts have a profile in the directory. Ask us to turn your account into an advisor account.')
+    throw forbidden(
+      'Only advisor accounts have a profile in the directory. Ask us to turn your account into an advisor account.',
+    )
   }
   const values = {
     headline: input.headline,
@@ -85,7 +87,10 @@ export async function putMyProfile(
   const current = await getMyProfile(ctx, user.id)
   if (input.version === 0) {
     if (current) throw conflict('You already have a profile; reload it and try again.', { current })
-    const [row] = await ctx.db.insert(advisorProfiles).values({ userId: user.id, ...values }).returning()
+    const [row] = await ctx.db
+      .insert(advisorProfiles)
+      .values({ userId: user.id, ...values })
+      .returning()
     return toProfile(row!, user.displayName)
   }
   const [row] = await ctx.db

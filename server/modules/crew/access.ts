@@ -24,7 +24,11 @@ export async function memberRole(db: DbOrTx, userId: string, vehicleId: string):
  * answered), else null. The vehicles access helper calls this for users without a membership, so an advisor
  * reads the vehicle and its scenarios while a review is open, and loses access when it closes.
  */
-export async function reviewAdvisorRole(db: DbOrTx, userId: string, vehicleId: string): Promise<'advisor' | null> {
+export async function reviewAdvisorRole(
+  db: DbOrTx,
+  userId: string,
+  vehicleId: string,
+): Promise<'advisor' | null> {
   const [r] = await db
     .select({ id: reviews.id })
     .from(reviews)

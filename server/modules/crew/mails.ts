@@ -8,7 +8,14 @@ const ROLE_WORDS: Record<string, string> = {
   advisor: 'an advisor (you can read everything and leave comments)',
 }
 
-export function invitationMail(to: string, inviter: string, vehicle: string, role: string, link: string, days: number): OutgoingMail {
+export function invitationMail(
+  to: string,
+  inviter: string,
+  vehicle: string,
+  role: string,
+  link: string,
+  days: number,
+): OutgoingMail {
   return {
     to,
     kind: 'crew_invitation',
@@ -22,16 +29,30 @@ export function invitationMail(to: string, inviter: string, vehicle: string, rol
   }
 }
 
-export function joinedMail(to: string, ownerName: string, member: string, vehicle: string, role: string): OutgoingMail {
+export function joinedMail(
+  to: string,
+  ownerName: string,
+  member: string,
+  vehicle: string,
+  role: string,
+): OutgoingMail {
   return {
     to,
     kind: 'crew_joined',
     subject: `${member} joined the crew of “${vehicle}”`,
-    text: `Hello ${ownerName},\n\n${member} accepted your invitation and is now ${role} on “${vehicle}”.` + SIGN_OFF,
+    text:
+      `Hello ${ownerName},\n\n${member} accepted your invitation and is now ${role} on “${vehicle}”.` +
+      SIGN_OFF,
   }
 }
 
-export function roleChangedMail(to: string, name: string, vehicle: string, role: string, by: string): OutgoingMail {
+export function roleChangedMail(
+  to: string,
+  name: string,
+  vehicle: string,
+  role: string,
+  by: string,
+): OutgoingMail {
   return {
     to,
     kind: 'crew_role_changed',
@@ -45,7 +66,9 @@ export function removedMail(to: string, name: string, vehicle: string, by: strin
     to,
     kind: 'crew_removed',
     subject: `You are no longer on the crew of “${vehicle}”`,
-    text: `Hello ${name},\n\n${by} removed you from the crew of “${vehicle}”. You can no longer open it.` + SIGN_OFF,
+    text:
+      `Hello ${name},\n\n${by} removed you from the crew of “${vehicle}”. You can no longer open it.` +
+      SIGN_OFF,
   }
 }
 

@@ -47,7 +47,12 @@ export function crewRouter(ctx: AppContext): Router {
   })
 
   r.post('/vehicles/:vehicleId/leave', async (req, res) => {
-    const { userId } = await requireVehicleRole(ctx.db, res, p(req, 'vehicleId'), ['owner', 'editor', 'viewer', 'advisor'])
+    const { userId } = await requireVehicleRole(ctx.db, res, p(req, 'vehicleId'), [
+      'owner',
+      'editor',
+      'viewer',
+      'advisor',
+    ])
     await crew.leave(ctx, p(req, 'vehicleId'), userId)
     res.status(204).end()
   })

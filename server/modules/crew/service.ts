@@ -25,7 +25,8 @@ import { invitationMail, joinedMail, ownershipMail, removedMail, roleChangedMail
 type InvitationRow = typeof vehicleInvitations.$inferSelect
 const asDb = (tx: Tx) => tx as unknown as Db
 
-export const appUrl = (ctx: AppContext) => (ctx.env.APP_URL ?? `http://127.0.0.1:${ctx.env.PORT}`).replace(/\/$/, '')
+export const appUrl = (ctx: AppContext) =>
+  (ctx.env.APP_URL ?? `http://127.0.0.1:${ctx.env.PORT}`).replace(/\/$/, '')
 
 function invitationStatus(i: InvitationRow, now = new Date()): InvitationStatus {
   if (i.acceptedAt) return 'accepted'
@@ -58,7 +59,12 @@ async function userById(db: Db | Tx, id: string) {
 }
 
 /** The crew page: members, (for the owner) invitations, and advisors reading through an open review. */
-export async function getCrew(ctx: AppContext, vehicleId: string, userId: string, myRole: CrewRole): Promise<Crew> {
+export async function getCrew(
+  ctx: AppContext,
+  vehicleId: string,
+  userId: string,
+  myRole: CrewRole,
+): Promise<Crew> {
   const name = await vehicleName(ctx.db, vehicleId)
   const rows = await ctx.db
     .select({
@@ -71,7 +77,10 @@ export async function getCrew(ctx: AppContext, vehicleId: string, userId: string
     .from(vehicleMemberships)
     .innerJoin(users, eq(users.id, vehicleMemberships.userId))
     .where(eq(vehicleMemberships.vehicleId, vehicleId))
-    .orderBy(sql`case ${vehicleMemberships.role} when 'owner' then 0 when 'editor' then 1 when 'viewer' then 2 else 3 end`, asc(vehicleMemberships.createdAt))
+    .orderBy(
+      sql`case ${vehicleMemberships.role} when 'owner' then 0 when 'editor' then 1 when 'viewer' then 2 else 3 end`,
+      asc(vehicleMemberships.createdAt),
+    )
   const isOwner = myRole === 'owner'
   let invitations: Invitation[] = []
   if (isOwner) {
@@ -90,7 +99,12 @@ export async function getCrew(ctx: AppContext, vehicleId: string, userId: string
     invitations = inv.map((r) => toInvitation(r.i, r.by))
   }
   const advisors = await ctx.db
-    .select({ userId: reviews.advisorId, displayName: users.displayName, reviewId: reviews.id, state: reviews.state })
+    .select({
+      userId: reviews.advisorId,
+      displayName: users.displayName,
+      reviewId: reviews.id,
+      state: reviews.state,
+    })
     .from(reviews)
     .innerJoin(users, eq(users.id, reviews.advisorId))
     .where(and(eq(reviews.vehicleId, vehicleId), inArray(reviews.state, OPEN_REVIEW_STATES as ReviewState[])))
@@ -130,7 +144,11 @@ export async function createInvitation(
       .innerJoin(users, eq(users.id, vehicleMemberships.userId))
       .where(and(eq(vehicleMemberships.vehicleId, vehicleId), sql`lower(${users.email}) = ${email}`))
     if (already) {
-      throw new HttpError(409, 'already_member', `${email} is already on the crew (${already.role}). Change their role instead.`)
+      throw new HttpError(
+        409,
+        'already_member',
+        `${email} is already on the crew (${already.role}). Change their role instead.`,
+      )
     }
     // A new invitation to the same address replaces the pending one, so only the newest link works.
     await tx
@@ -167,13 +185,25 @@ export async function createInvitation(
     const inviter = owner?.displayName ?? 'A member'
     await enqueueMail(
       asDb(tx),
-      invitationMail(email, inviter, name, role, `${appUrl(ctx)}/invitations/${token}`, INVITATION_LIFETIME_DAYS),
+      invitationMail(
+        email,
+        inviter,
+        name,
+        role,
+        `${appUrl(ctx)}/invitations/${token}`,
+        INVITATION_LIFETIME_DAYS,
+      ),
     )
     return toInvitation(row!, inviter)
   })
 }
 
-export async function revokeInvitation(ctx: AppContext, vehicleId: string, ownerId: string, invitationId: string): Promise<void> {
+export async function revokeInvitation(
+  ctx: AppContext,
+  vehicleId: string,
+  ownerId: string,
+  invitationId: string,
+): Promise<void> {
   await ctx.db.transaction(async (tx) => {
     const [row] = await tx
       .update(vehicleInvitations)
@@ -213,7 +243,10 @@ const invalidInvitation = () => notFound('That invitation')
 export async function previewInvitation(ctx: AppContext, token: string): Promise<InvitationPreview> {
   const row = await findInvitation(ctx.db, token)
   if (!row) throw invalidInvitation()
-  const [v] = await ctx.db.select({ name: vehicles.name }).from(vehicles).where(eq(vehicles.id, row.vehicleId))
+  const [v] = await ctx.db
+    .select({ name: vehicles.name })
+    .from(vehicles)
+    .where(eq(vehicles.id, row.vehicleId))
   const by = row.invitedBy ? await userById(ctx.db, row.invitedBy) : null
   return {
     vehicleName: v?.name ?? '',
@@ -234,14 +267,33 @@ function maskEmail(email: string): string {
  * The signed-in user takes the invitation: only once, only before it expires, only the account whose
  * e-mail it was sent to. A wrong account leaves the invitation untouched.
  */
-export async function acceptInvitation(ctx: AppContext, token: string, userId: string): Promise<InvitationAccepted> {
+export async function acceptInvitation(
+  ctx: AppContext,
+  token: string,
+  userId: string,
+): Promise<InvitationAccepted> {
   return ctx.db.transaction(async (tx) => {
     const row = await findInvitation(tx, token, true)
     if (!row) throw invalidInvitation()
     const status = invitationStatus(row)
-    if (status === 'accepted') throw new HttpError(410, 'invitation_used', 'This invitation was already used. Ask the owner for a new one.')
-    if (status === 'revoked') throw new HttpError(410, 'invitation_revoked', 'This invitation was withdrawn. Ask the owner for a new one.')
-    if (status === 'expired') throw new HttpError(410, 'invitation_expired', 'This invitation has expired. Ask the owner for a new one.')
+    if (status === 'accepted')
+      throw new HttpError(
+        410,
+        'invitation_used',
+        'This invitation was already used. Ask the owner for a new one.',
+      )
+    if (status === 'revoked')
+      throw new HttpError(
+        410,
+        'invitation_revoked',
+        'This invitation was withdrawn. Ask the owner for a new one.',
+      )
+    if (status === 'expired')
+      throw new HttpError(
+        410,
+        'invitation_expired',
+        'This invitation has expired. Ask the owner for a new one.',
+      )
     const me = await userById(tx, userId)
     if (!me) throw notFound('Your account')
     if (me.email.toLowerCase() !== row.email) {
@@ -263,7 +315,12 @@ export async function acceptInvitation(ctx: AppContext, token: string, userId: s
       else if (current[0].role !== row.role) {
         await tx
           .update(vehicleMemberships)
-          .set({ role: row.role, version: sql`${vehicleMemberships.version} + 1`, updatedAt: new Date(), updatedBy: userId })
+          .set({
+            role: row.role,
+            version: sql`${vehicleMemberships.version} + 1`,
+            updatedAt: new Date(),
+            updatedBy: userId,
+          })
           .where(eq(vehicleMemberships.id, current[0].id))
         await recordCrewHistory(tx, {
           vehicleId: row.vehicleId,
@@ -277,7 +334,9 @@ export async function acceptInvitation(ctx: AppContext, token: string, userId: s
         })
       }
     } else {
-      await tx.insert(vehicleMemberships).values({ vehicleId: row.vehicleId, userId, role: row.role, updatedBy: userId })
+      await tx
+        .insert(vehicleMemberships)
+        .values({ vehicleId: row.vehicleId, userId, role: row.role, updatedBy: userId })
       await recordCrewHistory(tx, {
         vehicleId: row.vehicleId,
         actorId: userId,
@@ -293,7 +352,11 @@ export async function acceptInvitation(ctx: AppContext, token: string, userId: s
       .where(eq(vehicleInvitations.id, row.id))
     if (row.invitedBy) {
       const inviter = await userById(tx, row.invitedBy)
-      if (inviter) await enqueueMail(asDb(tx), joinedMail(inviter.email, inviter.displayName, me.displayName, name, role))
+      if (inviter)
+        await enqueueMail(
+          asDb(tx),
+          joinedMail(inviter.email, inviter.displayName, me.displayName, name, role),
+        )
     }
     return { vehicleId: row.vehicleId, role }
   })
@@ -308,15 +371,27 @@ async function membershipOf(tx: Tx, vehicleId: string, userId: string) {
   return m ?? null
 }
 
-export async function changeRole(ctx: AppContext, vehicleId: string, ownerId: string, targetId: string, role: InviteRole): Promise<void> {
+export async function changeRole(
+  ctx: AppContext,
+  vehicleId: string,
+  ownerId: string,
+  targetId: string,
+  role: InviteRole,
+): Promise<void> {
   await ctx.db.transaction(async (tx) => {
     const m = await membershipOf(tx, vehicleId, targetId)
     if (!m) throw notFound('That crew member')
-    if (m.role === 'owner') throw badRequest('The owner’s role changes only by handing the vehicle over to someone else.')
+    if (m.role === 'owner')
+      throw badRequest('The owner’s role changes only by handing the vehicle over to someone else.')
     if (m.role === role) return
     await tx
       .update(vehicleMemberships)
-      .set({ role, version: sql`${vehicleMemberships.version} + 1`, updatedAt: new Date(), updatedBy: ownerId })
+      .set({
+        role,
+        version: sql`${vehicleMemberships.version} + 1`,
+        updatedAt: new Date(),
+        updatedBy: ownerId,
+      })
       .where(eq(vehicleMemberships.id, m.id))
     const target = await userById(tx, targetId)
     const owner = await userById(tx, ownerId)
@@ -331,13 +406,28 @@ export async function changeRole(ctx: AppContext, vehicleId: string, ownerId: st
       after: { role },
     })
     if (target) {
-      await enqueueMail(asDb(tx), roleChangedMail(target.email, target.displayName, await vehicleName(tx, vehicleId), role, owner?.displayName ?? 'The owner'))
+      await enqueueMail(
+        asDb(tx),
+        roleChangedMail(
+          target.email,
+          target.displayName,
+          await vehicleName(tx, vehicleId),
+          role,
+          owner?.displayName ?? 'The owner',
+        ),
+      )
     }
   })
 }
 
-export async function removeMember(ctx: AppContext, vehicleId: string, ownerId: string, targetId: string): Promise<void> {
-  if (targetId === ownerId) throw badRequest('You own this vehicle: hand it over to someone else before leaving.')
+export async function removeMember(
+  ctx: AppContext,
+  vehicleId: string,
+  ownerId: string,
+  targetId: string,
+): Promise<void> {
+  if (targetId === ownerId)
+    throw badRequest('You own this vehicle: hand it over to someone else before leaving.')
   await ctx.db.transaction(async (tx) => {
     const m = await membershipOf(tx, vehicleId, targetId)
     if (!m) throw notFound('That crew member')
@@ -354,7 +444,15 @@ export async function removeMember(ctx: AppContext, vehicleId: string, ownerId: 
       before: { role: m.role },
     })
     if (target) {
-      await enqueueMail(asDb(tx), removedMail(target.email, target.displayName, await vehicleName(tx, vehicleId), owner?.displayName ?? 'The owner'))
+      await enqueueMail(
+        asDb(tx),
+        removedMail(
+          target.email,
+          target.displayName,
+          await vehicleName(tx, vehicleId),
+          owner?.displayName ?? 'The owner',
+        ),
+      )
     }
   })
 }
@@ -364,7 +462,11 @@ export async function leave(ctx: AppContext, vehicleId: string, userId: string):
     const m = await membershipOf(tx, vehicleId, userId)
     if (!m) throw notFound('That vehicle')
     if (m.role === 'owner') {
-      throw new HttpError(400, 'owner_cannot_leave', 'You own this vehicle: hand it over to another crew member first, or delete it.')
+      throw new HttpError(
+        400,
+        'owner_cannot_leave',
+        'You own this vehicle: hand it over to another crew member first, or delete it.',
+      )
     }
     await tx.delete(vehicleMemberships).where(eq(vehicleMemberships.id, m.id))
     const me = await userById(tx, userId)
@@ -380,21 +482,38 @@ export async function leave(ctx: AppContext, vehicleId: string, userId: string):
 }
 
 /** Hand the vehicle to another member: they become owner, the old owner stays as editor. */
-export async function transferOwnership(ctx: AppContext, vehicleId: string, ownerId: string, targetId: string): Promise<void> {
-  if (targetId === ownerId) throw badRequest('You already own this vehicle.', { userId: ['must be another crew member'] })
+export async function transferOwnership(
+  ctx: AppContext,
+  vehicleId: string,
+  ownerId: string,
+  targetId: string,
+): Promise<void> {
+  if (targetId === ownerId)
+    throw badRequest('You already own this vehicle.', { userId: ['must be another crew member'] })
   await ctx.db.transaction(async (tx) => {
     const mine = await membershipOf(tx, vehicleId, ownerId)
     if (mine?.role !== 'owner') throw conflict('You are no longer the owner of this vehicle.')
     const theirs = await membershipOf(tx, vehicleId, targetId)
-    if (!theirs) throw badRequest('Only a crew member can become the owner.', { userId: ['must be a crew member'] })
+    if (!theirs)
+      throw badRequest('Only a crew member can become the owner.', { userId: ['must be a crew member'] })
     const now = new Date()
     await tx
       .update(vehicleMemberships)
-      .set({ role: 'owner', version: sql`${vehicleMemberships.version} + 1`, updatedAt: now, updatedBy: ownerId })
+      .set({
+        role: 'owner',
+        version: sql`${vehicleMemberships.version} + 1`,
+        updatedAt: now,
+        updatedBy: ownerId,
+      })
       .where(eq(vehicleMemberships.id, theirs.id))
     await tx
       .update(vehicleMemberships)
-      .set({ role: 'editor', version: sql`${vehicleMemberships.version} + 1`, updatedAt: now, updatedBy: ownerId })
+      .set({
+        role: 'editor',
+        version: sql`${vehicleMemberships.version} + 1`,
+        updatedAt: now,
+        updatedBy: ownerId,
+      })
       .where(eq(vehicleMemberships.id, mine.id))
     const target = await userById(tx, targetId)
     const owner = await userById(tx, ownerId)
@@ -409,7 +528,15 @@ export async function transferOwnership(ctx: AppContext, vehicleId: string, owne
       after: { owner: targetId },
     })
     if (target) {
-      await enqueueMail(asDb(tx), ownershipMail(target.email, target.displayName, await vehicleName(tx, vehicleId), owner?.displayName ?? 'The owner'))
+      await enqueueMail(
+        asDb(tx),
+        ownershipMail(
+          target.email,
+          target.displayName,
+          await vehicleName(tx, vehicleId),
+          owner?.displayName ?? 'The owner',
+        ),
+      )
     }
   })
 }

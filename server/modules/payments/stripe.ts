@@ -27,7 +27,20 @@ export function stripeClient(env: Env): Stripe {
 }
 
 /** Currencies a fee may be set in; all have two decimals (minor unit = 1/100). */
-export const FEE_CURRENCIES = ['EUR', 'GBP', 'USD', 'CHF', 'NOK', 'SEK', 'DKK', 'PLN', 'CZK', 'CAD', 'AUD', 'NZD'] as const
+export const FEE_CURRENCIES = [
+  'EUR',
+  'GBP',
+  'USD',
+  'CHF',
+  'NOK',
+  'SEK',
+  'DKK',
+  'PLN',
+  'CZK',
+  'CAD',
+  'AUD',
+  'NZD',
+] as const
 export type FeeCurrency = (typeof FEE_CURRENCIES)[number]
 
 /** "45.50" EUR → 4550 (minor units, exact). */

@@ -21,7 +21,12 @@ export async function applyPaymentEvent(ctx: AppContext, tx: Tx, event: Stripe.E
     case 'checkout.session.async_payment_succeeded': {
       const s = event.data.object
       if (s.payment_status !== 'paid') return 'not paid yet'
-      return paid(ctx, tx, s.id, typeof s.payment_intent === 'string' ? s.payment_intent : (s.payment_intent?.id ?? null))
+      return paid(
+        ctx,
+        tx,
+        s.id,
+        typeof s.payment_intent === 'string' ? s.payment_intent : (s.payment_intent?.id ?? null),
+      )
     }
     case 'checkout.session.async_payment_failed':
     case 'checkout.session.expired':
@@ -51,7 +56,11 @@ async function context(ctx: AppContext, tx: Tx, r: typeof reviews.$inferSelect) 
 }
 
 async function paymentBySession(tx: Tx, sessionId: string) {
-  const [p] = await tx.select().from(reviewPayments).where(eq(reviewPayments.checkoutSessionId, sessionId)).for('update')
+  const [p] = await tx
+    .select()
+    .from(reviewPayments)
+    .where(eq(reviewPayments.checkoutSessionId, sessionId))
+    .for('update')
   if (!p) return null
   const [r] = await tx.select().from(reviews).where(eq(reviews.id, p.reviewId)).for('update')
   return r ? { p, r } : null
@@ -63,13 +72,20 @@ async function paid(ctx: AppContext, tx: Tx, sessionId: string, intentId: string
   const { p, r } = hit
   if (p.status === 'paid' || p.status === 'refund_pending' || p.status === 'refunded') return 'already paid'
   const now = new Date()
-  await tx.update(reviewPayments).set({ status: 'paid', paymentIntentId: intentId, updatedAt: now }).where(eq(reviewPayments.id, p.id))
+  await tx
+    .update(reviewPayments)
+    .set({ status: 'paid', paymentIntentId: intentId, updatedAt: now })
+    .where(eq(reviewPayments.id, p.id))
   if (r.state !== 'awaiting_payment') return 'paid, review no longer waiting'
   await tx
     .update(reviews)
     .set({ state: 'requested', paymentState: 'paid', paidAt: now, updatedAt: now, version: r.version + 1 })
     .where(eq(reviews.id, r.id))
-  await addEvent(tx, r.id, `Payment of ${new Decimal(r.feeAmount).toFixed(2)} ${r.currency} received. The review is open for ${(await context(ctx, tx, r)).advisorName}.`)
+  await addEvent(
+    tx,
+    r.id,
+    `Payment of ${new Decimal(r.feeAmount).toFixed(2)} ${r.currency} received. The review is open for ${(await context(ctx, tx, r)).advisorName}.`,
+  )
   const m = await context(ctx, tx, r)
   const db = tx as unknown as Db
   if (m.advisor) await enqueueMail(db, reviewMails.newRequest(m.advisor, m.clientName, r.message))
@@ -85,7 +101,10 @@ async function failed(ctx: AppContext, tx: Tx, sessionId: string): Promise<strin
   const now = new Date()
   await tx.update(reviewPayments).set({ status: 'failed', updatedAt: now }).where(eq(reviewPayments.id, p.id))
   if (r.state !== 'awaiting_payment') return 'review no longer waiting'
-  await tx.update(reviews).set({ paymentState: 'failed', updatedAt: now, version: r.version + 1 }).where(eq(reviews.id, r.id))
+  await tx
+    .update(reviews)
+    .set({ paymentState: 'failed', updatedAt: now, version: r.version + 1 })
+    .where(eq(reviews.id, r.id))
   await addEvent(tx, r.id, 'The payment did not go through. Nothing was charged; you can try again.')
   const m = await context(ctx, tx, r)
   if (m.client) await enqueueMail(tx as unknown as Db, reviewMails.paymentFailed(m.client))
@@ -93,14 +112,24 @@ async function failed(ctx: AppContext, tx: Tx, sessionId: string): Promise<strin
 }
 
 async function refunded(ctx: AppContext, tx: Tx, intentId: string): Promise<string> {
-  const [p] = await tx.select().from(reviewPayments).where(eq(reviewPayments.paymentIntentId, intentId)).for('update')
+  const [p] = await tx
+    .select()
+    .from(reviewPayments)
+    .where(eq(reviewPayments.paymentIntentId, intentId))
+    .for('update')
   if (!p) return 'unknown payment'
   if (p.status === 'refunded') return 'already refunded'
   const now = new Date()
-  await tx.update(reviewPayments).set({ status: 'refunded', updatedAt: now }).where(eq(reviewPayments.id, p.id))
+  await tx
+    .update(reviewPayments)
+    .set({ status: 'refunded', updatedAt: now })
+    .where(eq(reviewPayments.id, p.id))
   const [r] = await tx.select().from(reviews).where(eq(reviews.id, p.reviewId)).for('update')
   if (!r) return 'refunded'
-  await tx.update(reviews).set({ paymentState: 'refunded', updatedAt: now, version: r.version + 1 }).where(eq(reviews.id, r.id))
+  await tx
+    .update(reviews)
+    .set({ paymentState: 'refunded', updatedAt: now, version: r.version + 1 })
+    .where(eq(reviews.id, r.id))
   const amount = `${new Decimal(r.feeAmount).toFixed(2)} ${r.currency}`
   await addEvent(tx, r.id, `The fee of ${amount} was refunded in full.`)
   const m = await context(ctx, tx, r)

@@ -57,7 +57,12 @@ export interface ReviewAccess {
 }
 
 /** 401/404 like the vehicle routes: the review's advisor, or a crew member of its vehicle (the client side). */
-export async function loadReviewForUser(db: Db | Tx, reviewId: string, userId: string, lock = false): Promise<ReviewAccess> {
+export async function loadReviewForUser(
+  db: Db | Tx,
+  reviewId: string,
+  userId: string,
+  lock = false,
+): Promise<ReviewAccess> {
   if (!UUID.test(reviewId)) throw notFound('That review')
   const q = db.select().from(reviews).where(eq(reviews.id, reviewId))
   const [review] = lock ? await q.for('update') : await q
@@ -71,7 +76,10 @@ export async function loadReviewForUser(db: Db | Tx, reviewId: string, userId: s
 async function names(db: Db | Tx, ids: (string | null)[]) {
   const list = [...new Set(ids.filter((x): x is string => !!x))]
   if (!list.length) return new Map<string, { id: string; displayName: string; email: string }>()
-  const rows = await db.select({ id: users.id, displayName: users.displayName, email: users.email }).from(users).where(inArray(users.id, list))
+  const rows = await db
+    .select({ id: users.id, displayName: users.displayName, email: users.email })
+    .from(users)
+    .where(inArray(users.id, list))
   return new Map(rows.map((r) => [r.id, r]))
 }
 
@@ -84,7 +92,12 @@ async function mailContexts(db: Db | Tx, ctx: AppContext, r: ReviewRow) {
   const advisor = people.get(r.advisorId)
   const to = (u: { displayName: string; email: string } | undefined): ReviewMailContext | null =>
     u ? { ...base, to: u.email, name: u.displayName } : null
-  return { client: to(requester), advisor: to(advisor), clientName: requester?.displayName ?? 'The client', advisorName: advisor?.displayName ?? 'The advisor' }
+  return {
+    client: to(requester),
+    advisor: to(advisor),
+    clientName: requester?.displayName ?? 'The client',
+    advisorName: advisor?.displayName ?? 'The advisor',
+  }
 }
 
 async function send(tx: Tx | Db, m: OutgoingMail | null | undefined): Promise<void> {
@@ -92,7 +105,12 @@ async function send(tx: Tx | Db, m: OutgoingMail | null | undefined): Promise<vo
 }
 
 /** A line in the thread written by the server ("Payment received"). */
-export async function addEvent(tx: Tx | Db, reviewId: string, body: string, actorId: string | null = null): Promise<void> {
+export async function addEvent(
+  tx: Tx | Db,
+  reviewId: string,
+  body: string,
+  actorId: string | null = null,
+): Promise<void> {
   await tx.insert(reviewComments).values({ reviewId, authorId: actorId, kind: 'event', body })
 }
 
@@ -107,20 +125,33 @@ async function setState(tx: Tx, id: string, patch: Partial<typeof reviews.$infer
 
 // ---------------------------------------------------------------------------------------------------------
 
-export async function createReview(ctx: AppContext, res: Parameters<typeof requireVehicleRole>[1], input: ReviewCreate): Promise<ReviewDetail> {
+export async function createReview(
+  ctx: AppContext,
+  res: Parameters<typeof requireVehicleRole>[1],
+  input: ReviewCreate,
+): Promise<ReviewDetail> {
   const userId = res.locals.user!.id
   const [scenario] = await ctx.db.select().from(scenarios).where(eq(scenarios.id, input.scenarioId))
   if (!scenario) throw notFound('That scenario')
-  const { role } = await requireVehicleRole(ctx.db, res, scenario.vehicleId, ['owner', 'editor', 'viewer', 'advisor'], 'That scenario')
-  if (!CLIENT_WRITERS.includes(role)) throw forbidden(`Your role on this vehicle (${role}) does not allow asking for reviews.`)
+  const { role } = await requireVehicleRole(
+    ctx.db,
+    res,
+    scenario.vehicleId,
+    ['owner', 'editor', 'viewer', 'advisor'],
+    'That scenario',
+  )
+  if (!CLIENT_WRITERS.includes(role))
+    throw forbidden(`Your role on this vehicle (${role}) does not allow asking for reviews.`)
   if (input.advisorId === userId) throw validationFailed({ advisorId: ['must be someone else than you'] })
   const [adv] = await ctx.db
     .select({ p: advisorProfiles, role: users.role })
     .from(advisorProfiles)
     .innerJoin(users, eq(users.id, advisorProfiles.userId))
     .where(eq(advisorProfiles.userId, input.advisorId))
-  if (!adv || adv.role !== 'advisor') throw validationFailed({ advisorId: ['must be an advisor from the directory'] })
-  if (!adv.p.accepting) throw validationFailed({ advisorId: ['this advisor is not taking requests at the moment'] })
+  if (!adv || adv.role !== 'advisor')
+    throw validationFailed({ advisorId: ['must be an advisor from the directory'] })
+  if (!adv.p.accepting)
+    throw validationFailed({ advisorId: ['this advisor is not taking requests at the moment'] })
   const [dup] = await ctx.db
     .select({ id: reviews.id })
     .from(reviews)
@@ -150,7 +181,14 @@ export async function createReview(ctx: AppContext, res: Parameters<typeof requi
         paymentState: paid ? 'unpaid' : 'none',
       })
       .returning()
-    await addEvent(tx, row!.id, paid ? `Review requested; the fee of ${money(fee, adv.p.currency)} is due before it opens.` : 'Review requested.', userId)
+    await addEvent(
+      tx,
+      row!.id,
+      paid
+        ? `Review requested; the fee of ${money(fee, adv.p.currency)} is due before it opens.`
+        : 'Review requested.',
+      userId,
+    )
     await tx.insert(reviewReads).values({ reviewId: row!.id, userId }).onConflictDoNothing()
     if (!paid) {
       const m = await mailContexts(tx, ctx, row!)
@@ -162,15 +200,23 @@ export async function createReview(ctx: AppContext, res: Parameters<typeof requi
 }
 
 /** Start a hosted checkout for a review awaiting payment; answers where to send the payer. */
-export async function startCheckout(ctx: AppContext, reviewId: string, userId: string): Promise<{ url: string }> {
+export async function startCheckout(
+  ctx: AppContext,
+  reviewId: string,
+  userId: string,
+): Promise<{ url: string }> {
   const a = await loadReviewForUser(ctx.db, reviewId, userId)
-  if (a.side !== 'client' || !a.clientWriter) throw forbidden('Only the owner or an editor of the vehicle can pay for a review.')
+  if (a.side !== 'client' || !a.clientWriter)
+    throw forbidden('Only the owner or an editor of the vehicle can pay for a review.')
   const r = a.review
   if (r.state !== 'awaiting_payment' || !['unpaid', 'failed'].includes(r.paymentState)) {
     throw new HttpError(409, 'not_payable', 'This review is not waiting for a payment.')
   }
   const [me] = await ctx.db.select({ email: users.email }).from(users).where(eq(users.id, userId))
-  const attempts = await ctx.db.select({ n: sql<number>`count(*)::int` }).from(reviewPayments).where(eq(reviewPayments.reviewId, r.id))
+  const attempts = await ctx.db
+    .select({ n: sql<number>`count(*)::int` })
+    .from(reviewPayments)
+    .where(eq(reviewPayments.reviewId, r.id))
   const base = appUrl(ctx)
   let session
   try {
@@ -197,7 +243,9 @@ export async function startCheckout(ctx: AppContext, reviewId: string, userId: s
     )
   } catch (err) {
     ctx.log.error({ err }, 'checkout session failed')
-    throw serviceUnavailable('The payment service did not answer. Nothing was charged; please try again in a moment.')
+    throw serviceUnavailable(
+      'The payment service did not answer. Nothing was charged; please try again in a moment.',
+    )
   }
   await ctx.db
     .insert(reviewPayments)
@@ -212,31 +260,55 @@ export async function startCheckout(ctx: AppContext, reviewId: string, userId: s
   return { url: session.url }
 }
 
-async function pinFor(db: Db | Tx, r: ReviewRow, kind: PinKind, itemId: string | null | undefined): Promise<{ itemId: string | null; label: string | null }> {
+async function pinFor(
+  db: Db | Tx,
+  r: ReviewRow,
+  kind: PinKind,
+  itemId: string | null | undefined,
+): Promise<{ itemId: string | null; label: string | null }> {
   if (kind === 'general') return { itemId: null, label: null }
   if (kind === 'battery') return { itemId: null, label: 'Battery bank' }
   if (kind === 'result') {
     const item = RESULT_ITEMS.find((i) => i.id === itemId)
-    if (!item) throw validationFailed({ 'pin.itemId': [`must be one of ${RESULT_ITEMS.map((i) => i.id).join(', ')}`] })
+    if (!item)
+      throw validationFailed({ 'pin.itemId': [`must be one of ${RESULT_ITEMS.map((i) => i.id).join(', ')}`] })
     return { itemId: item.id, label: item.label }
   }
-  if (!itemId || !UUID.test(itemId)) throw validationFailed({ 'pin.itemId': [`must be the id of one of the vehicle’s ${kind === 'appliance' ? 'appliances' : 'charge sources'}`] })
+  if (!itemId || !UUID.test(itemId))
+    throw validationFailed({
+      'pin.itemId': [
+        `must be the id of one of the vehicle’s ${kind === 'appliance' ? 'appliances' : 'charge sources'}`,
+      ],
+    })
   const table = kind === 'appliance' ? appliances : chargeSources
   const [row] = await db
     .select({ id: table.id, params: table.params })
     .from(table)
     .where(and(eq(table.id, itemId), eq(table.vehicleId, r.vehicleId)))
-  if (!row) throw validationFailed({ 'pin.itemId': [`no such ${kind === 'appliance' ? 'appliance' : 'charge source'} on this vehicle`] })
+  if (!row)
+    throw validationFailed({
+      'pin.itemId': [`no such ${kind === 'appliance' ? 'appliance' : 'charge source'} on this vehicle`],
+    })
   return { itemId: row.id, label: (row.params as { name?: string }).name ?? kind }
 }
 
-export async function addComment(ctx: AppContext, reviewId: string, userId: string, input: CommentCreate & { pin: { kind: PinKind; itemId?: string | null } }): Promise<Comment> {
+export async function addComment(
+  ctx: AppContext,
+  reviewId: string,
+  userId: string,
+  input: CommentCreate & { pin: { kind: PinKind; itemId?: string | null } },
+): Promise<Comment> {
   return ctx.db.transaction(async (tx) => {
     const a = await loadReviewForUser(tx, reviewId, userId, true)
     let r = a.review
-    if (a.side === 'client' && !a.clientWriter) throw forbidden('Your role on this vehicle lets you read the review, not write in it.')
+    if (a.side === 'client' && !a.clientWriter)
+      throw forbidden('Your role on this vehicle lets you read the review, not write in it.')
     if (!isOpen(r.state)) {
-      throw new HttpError(409, 'review_not_open', r.state === 'closed' ? 'This review is closed.' : 'This review opens once the fee is paid.')
+      throw new HttpError(
+        409,
+        'review_not_open',
+        r.state === 'closed' ? 'This review is closed.' : 'This review opens once the fee is paid.',
+      )
     }
     const pin = await pinFor(tx, r, input.pin.kind, input.pin.itemId)
     const m = await mailContexts(tx, ctx, r)
@@ -246,11 +318,22 @@ export async function addComment(ctx: AppContext, reviewId: string, userId: stri
     }
     const [row] = await tx
       .insert(reviewComments)
-      .values({ reviewId: r.id, authorId: userId, kind: 'comment', body: input.body, pinKind: input.pin.kind, pinItemId: pin.itemId, pinLabel: pin.label })
+      .values({
+        reviewId: r.id,
+        authorId: userId,
+        kind: 'comment',
+        body: input.body,
+        pinKind: input.pin.kind,
+        pinItemId: pin.itemId,
+        pinLabel: pin.label,
+      })
       .returning()
     await tx.update(reviews).set({ updatedAt: new Date() }).where(eq(reviews.id, r.id))
     await markRead(tx, r.id, userId)
-    const authorName = a.side === 'advisor' ? m.advisorName : ((await names(tx, [userId])).get(userId)?.displayName ?? 'The client')
+    const authorName =
+      a.side === 'advisor'
+        ? m.advisorName
+        : ((await names(tx, [userId])).get(userId)?.displayName ?? 'The client')
     const pinned = pin.label ? `“${pin.label}”` : 'the plan'
     const target = a.side === 'advisor' ? m.client : m.advisor
     await send(tx, target && reviewMails.comment(target, authorName, pinned, input.body))
@@ -258,7 +341,12 @@ export async function addComment(ctx: AppContext, reviewId: string, userId: stri
   })
 }
 
-async function advisorAction(ctx: AppContext, reviewId: string, userId: string, fn: (tx: Tx, r: ReviewRow, m: Awaited<ReturnType<typeof mailContexts>>) => Promise<void>) {
+async function advisorAction(
+  ctx: AppContext,
+  reviewId: string,
+  userId: string,
+  fn: (tx: Tx, r: ReviewRow, m: Awaited<ReturnType<typeof mailContexts>>) => Promise<void>,
+) {
   await ctx.db.transaction(async (tx) => {
     const a = await loadReviewForUser(tx, reviewId, userId, true)
     if (a.side !== 'advisor') throw forbidden('Only the review’s advisor can do this.')
@@ -268,33 +356,63 @@ async function advisorAction(ctx: AppContext, reviewId: string, userId: string, 
 
 export async function startReview(ctx: AppContext, reviewId: string, userId: string): Promise<void> {
   await advisorAction(ctx, reviewId, userId, async (tx, r, m) => {
-    if (r.state !== 'requested') throw new HttpError(409, 'bad_state', 'Only a requested review can be started.')
+    if (r.state !== 'requested')
+      throw new HttpError(409, 'bad_state', 'Only a requested review can be started.')
     await setState(tx, r.id, { state: 'in_progress', startedAt: new Date() })
     await addEvent(tx, r.id, `${m.advisorName} started the review.`, userId)
     await send(tx, m.client && reviewMails.started(m.client, m.advisorName))
   })
 }
 
-export async function answerReview(ctx: AppContext, reviewId: string, userId: string, input: ReviewAnswer): Promise<void> {
+export async function answerReview(
+  ctx: AppContext,
+  reviewId: string,
+  userId: string,
+  input: ReviewAnswer,
+): Promise<void> {
   await advisorAction(ctx, reviewId, userId, async (tx, r, m) => {
     if (r.state !== 'in_progress' && r.state !== 'requested') {
-      throw new HttpError(409, 'bad_state', 'A verdict can be given while the review is requested or in progress.')
+      throw new HttpError(
+        409,
+        'bad_state',
+        'A verdict can be given while the review is requested or in progress.',
+      )
     }
-    await setState(tx, r.id, { state: 'answered', verdict: input.verdict, summary: input.summary, answeredAt: new Date(), startedAt: r.startedAt ?? new Date() })
-    await addEvent(tx, r.id, `${m.advisorName} gave the verdict: ${REVIEW_VERDICT_LABEL[input.verdict]}.`, userId)
-    await send(tx, m.client && reviewMails.answered(m.client, m.advisorName, REVIEW_VERDICT_LABEL[input.verdict], input.summary))
+    await setState(tx, r.id, {
+      state: 'answered',
+      verdict: input.verdict,
+      summary: input.summary,
+      answeredAt: new Date(),
+      startedAt: r.startedAt ?? new Date(),
+    })
+    await addEvent(
+      tx,
+      r.id,
+      `${m.advisorName} gave the verdict: ${REVIEW_VERDICT_LABEL[input.verdict]}.`,
+      userId,
+    )
+    await send(
+      tx,
+      m.client &&
+        reviewMails.answered(m.client, m.advisorName, REVIEW_VERDICT_LABEL[input.verdict], input.summary),
+    )
   })
 }
 
 export async function closeReview(ctx: AppContext, reviewId: string, userId: string): Promise<void> {
   await ctx.db.transaction(async (tx) => {
     const a = await loadReviewForUser(tx, reviewId, userId, true)
-    if (a.side === 'client' && !a.clientWriter) throw forbidden('Your role on this vehicle lets you read the review, not close it.')
+    if (a.side === 'client' && !a.clientWriter)
+      throw forbidden('Your role on this vehicle lets you read the review, not close it.')
     const r = a.review
-    if (r.state !== 'answered') throw new HttpError(409, 'bad_state', 'A review can be closed once it has a verdict.')
+    if (r.state !== 'answered')
+      throw new HttpError(409, 'bad_state', 'A review can be closed once it has a verdict.')
     const m = await mailContexts(tx, ctx, r)
     await setState(tx, r.id, { state: 'closed', closeReason: 'done', closedAt: new Date() })
-    const by = a.side === 'advisor' ? m.advisorName : ((await names(tx, [userId])).get(userId)?.displayName ?? 'The client')
+    const by =
+      a.side === 'advisor'
+        ? m.advisorName
+        : ((await names(tx, [userId])).get(userId)?.displayName ?? 'The client')
     await addEvent(tx, r.id, `${by} closed the review.`, userId)
     const other = a.side === 'advisor' ? m.client : m.advisor
     await send(tx, other && reviewMails.closed(other, by))
@@ -322,9 +440,14 @@ async function refundInTx(ctx: AppContext, tx: Tx, r: ReviewRow): Promise<boolea
     )
   } catch (err) {
     ctx.log.error({ err }, 'refund failed')
-    throw serviceUnavailable('The payment service did not answer, so the review was not cancelled. Please try again in a moment.')
+    throw serviceUnavailable(
+      'The payment service did not answer, so the review was not cancelled. Please try again in a moment.',
+    )
   }
-  await tx.update(reviewPayments).set({ status: 'refund_pending', refundId: refund.id, updatedAt: new Date() }).where(eq(reviewPayments.id, pay.id))
+  await tx
+    .update(reviewPayments)
+    .set({ status: 'refund_pending', refundId: refund.id, updatedAt: new Date() })
+    .where(eq(reviewPayments.id, pay.id))
   return true
 }
 
@@ -332,16 +455,27 @@ async function refundInTx(ctx: AppContext, tx: Tx, r: ReviewRow): Promise<boolea
 export async function cancelReview(ctx: AppContext, reviewId: string, userId: string): Promise<void> {
   await ctx.db.transaction(async (tx) => {
     const a = await loadReviewForUser(tx, reviewId, userId, true)
-    if (a.side !== 'client' || !a.clientWriter) throw forbidden('Only the owner or an editor of the vehicle can cancel a review.')
+    if (a.side !== 'client' || !a.clientWriter)
+      throw forbidden('Only the owner or an editor of the vehicle can cancel a review.')
     const r = a.review
     if (r.state !== 'awaiting_payment' && r.state !== 'requested') {
       throw new HttpError(409, 'bad_state', 'A review can be cancelled only before the advisor starts on it.')
     }
     const refunding = await refundInTx(ctx, tx, r)
     const m = await mailContexts(tx, ctx, r)
-    await setState(tx, r.id, { state: 'closed', closeReason: 'cancelled', closedAt: new Date(), ...(refunding ? { paymentState: 'refund_pending' as const } : {}) })
+    await setState(tx, r.id, {
+      state: 'closed',
+      closeReason: 'cancelled',
+      closedAt: new Date(),
+      ...(refunding ? { paymentState: 'refund_pending' as const } : {}),
+    })
     const by = (await names(tx, [userId])).get(userId)?.displayName ?? 'The client'
-    await addEvent(tx, r.id, `${by} cancelled the review${refunding ? '; the fee is being refunded' : ''}.`, userId)
+    await addEvent(
+      tx,
+      r.id,
+      `${by} cancelled the review${refunding ? '; the fee is being refunded' : ''}.`,
+      userId,
+    )
     if (r.state === 'requested') await send(tx, m.advisor && reviewMails.cancelled(m.advisor, by, false))
     if (refunding) await send(tx, m.client && reviewMails.cancelled(m.client, by, true))
   })
@@ -354,8 +488,18 @@ export async function declineReview(ctx: AppContext, reviewId: string, userId: s
       throw new HttpError(409, 'bad_state', 'A review can be declined only before it starts.')
     }
     const refunding = await refundInTx(ctx, tx, r)
-    await setState(tx, r.id, { state: 'closed', closeReason: 'declined', closedAt: new Date(), ...(refunding ? { paymentState: 'refund_pending' as const } : {}) })
-    await addEvent(tx, r.id, `${m.advisorName} declined the review${refunding ? '; the fee is being refunded' : ''}.`, userId)
+    await setState(tx, r.id, {
+      state: 'closed',
+      closeReason: 'declined',
+      closedAt: new Date(),
+      ...(refunding ? { paymentState: 'refund_pending' as const } : {}),
+    })
+    await addEvent(
+      tx,
+      r.id,
+      `${m.advisorName} declined the review${refunding ? '; the fee is being refunded' : ''}.`,
+      userId,
+    )
     await send(tx, m.client && reviewMails.declined(m.client, m.advisorName, refunding))
   })
 }
@@ -366,10 +510,17 @@ async function markRead(db: Db | Tx, reviewId: string, userId: string): Promise<
   await db
     .insert(reviewReads)
     .values({ reviewId, userId, lastReadAt: new Date() })
-    .onConflictDoUpdate({ target: [reviewReads.reviewId, reviewReads.userId], set: { lastReadAt: new Date() } })
+    .onConflictDoUpdate({
+      target: [reviewReads.reviewId, reviewReads.userId],
+      set: { lastReadAt: new Date() },
+    })
 }
 
-function toComment(c: typeof reviewComments.$inferSelect, people: Map<string, { id: string; displayName: string }>, r: ReviewRow): Comment {
+function toComment(
+  c: typeof reviewComments.$inferSelect,
+  people: Map<string, { id: string; displayName: string }>,
+  r: ReviewRow,
+): Comment {
   const author = c.authorId ? people.get(c.authorId) : undefined
   return {
     id: c.id,
@@ -389,8 +540,15 @@ const unreadSql = (userId: string) => sql<number>`(
     and c.created_at > coalesce((select rr.last_read_at from ${reviewReads} rr where rr.review_id = ${reviews.id} and rr.user_id = ${userId}), 'epoch'::timestamptz)
 )`
 
-function summaryOf(r: ReviewRow, vehicleName: string, people: Map<string, { id: string; displayName: string }>, userId: string, unread: number): ReviewSummary {
-  const ref = (id: string | null) => (id && people.get(id) ? { id, displayName: people.get(id)!.displayName } : null)
+function summaryOf(
+  r: ReviewRow,
+  vehicleName: string,
+  people: Map<string, { id: string; displayName: string }>,
+  userId: string,
+  unread: number,
+): ReviewSummary {
+  const ref = (id: string | null) =>
+    id && people.get(id) ? { id, displayName: people.get(id)!.displayName } : null
   return {
     id: r.id,
     vehicleId: r.vehicleId,
@@ -425,13 +583,24 @@ export async function listReviews(ctx: AppContext, userId: string): Promise<Revi
     )
     .orderBy(desc(reviews.updatedAt))
     .limit(200)
-  const people = await names(ctx.db, rows.flatMap((x) => [x.r.requesterId, x.r.advisorId]))
+  const people = await names(
+    ctx.db,
+    rows.flatMap((x) => [x.r.requesterId, x.r.advisorId]),
+  )
   return rows.map((x) => summaryOf(x.r, x.vehicleName, people, userId, x.unread))
 }
 
 async function pinTargets(db: Db, vehicleId: string): Promise<PinTarget[]> {
-  const apps = await db.select({ id: appliances.id, params: appliances.params }).from(appliances).where(eq(appliances.vehicleId, vehicleId)).orderBy(asc(appliances.seq))
-  const srcs = await db.select({ id: chargeSources.id, params: chargeSources.params }).from(chargeSources).where(eq(chargeSources.vehicleId, vehicleId)).orderBy(asc(chargeSources.seq))
+  const apps = await db
+    .select({ id: appliances.id, params: appliances.params })
+    .from(appliances)
+    .where(eq(appliances.vehicleId, vehicleId))
+    .orderBy(asc(appliances.seq))
+  const srcs = await db
+    .select({ id: chargeSources.id, params: chargeSources.params })
+    .from(chargeSources)
+    .where(eq(chargeSources.vehicleId, vehicleId))
+    .orderBy(asc(chargeSources.seq))
   return [
     { kind: 'general', itemId: null, label: 'The plan in general' },
     { kind: 'battery', itemId: null, label: 'Battery bank' },
@@ -446,8 +615,15 @@ export async function getReview(ctx: AppContext, reviewId: string, userId: strin
   const a = await loadReviewForUser(ctx.db, reviewId, userId)
   const r = a.review
   const [v] = await ctx.db.select({ name: vehicles.name }).from(vehicles).where(eq(vehicles.id, r.vehicleId))
-  const [{ unread }] = (await ctx.db.select({ unread: unreadSql(userId) }).from(reviews).where(eq(reviews.id, r.id))) as [{ unread: number }]
-  const comments = await ctx.db.select().from(reviewComments).where(eq(reviewComments.reviewId, r.id)).orderBy(asc(reviewComments.createdAt))
+  const [{ unread }] = (await ctx.db
+    .select({ unread: unreadSql(userId) })
+    .from(reviews)
+    .where(eq(reviews.id, r.id))) as [{ unread: number }]
+  const comments = await ctx.db
+    .select()
+    .from(reviewComments)
+    .where(eq(reviewComments.reviewId, r.id))
+    .orderBy(asc(reviewComments.createdAt))
   const people = await names(ctx.db, [r.requesterId, r.advisorId, ...comments.map((c) => c.authorId)])
   await markRead(ctx.db, r.id, userId)
   const advisor = a.side === 'advisor'
@@ -472,5 +648,3 @@ export async function getReview(ctx: AppContext, reviewId: string, userId: strin
     },
   }
 }
-
-
