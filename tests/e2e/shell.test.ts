@@ -2,6 +2,7 @@ import { describe, it, expect, beforeAll, afterAll } from 'vitest'
 import type { Browser } from 'playwright-core'
 import { launchBrowser, newPage, screenshot, VIEWPORTS } from '../support/browser'
 import { startTestServer, type RunningServer } from '../support/server'
+import { createUser } from '../support/factories'
 
 describe('app shell in Chromium', () => {
   let server: RunningServer
@@ -17,6 +18,10 @@ describe('app shell in Chromium', () => {
 
   it('loads, navigates every area from the drawer, uses Nunito, and stays on loopback', async () => {
     const { page, requests, context } = await newPage(browser)
+    // Signed in, so the areas that need an account open instead of sending us to sign-in.
+    const user = await createUser(server.ctx)
+    const [name, value] = user.cookie.split('=')
+    await context.addCookies([{ name: name!, value: value!, url: server.url }])
     await page.goto(server.url + '/')
     await expect(page.getByRole('heading', { level: 1 })).toBeDefined()
     expect(await page.title()).toBe('Home · Ohmward')

@@ -15,7 +15,7 @@ export function resultsRouter(ctx: AppContext): Router {
   const { db } = ctx
   const r = Router()
   r.get('/:scenarioId/results', requireUser, async (req, res) => {
-    const { row } = await loadScenarioForUser(db, actorOf(res).id, req.params.scenarioId, 'read')
+    const { row } = await loadScenarioForUser(db, actorOf(res).id, String(req.params.scenarioId), 'read')
     const plan = await buildPlanForScenario(db, row.id)
     const { results, cached, computedInMs } = resultsForPlan(plan)
     res.setHeader('Cache-Control', 'private, no-cache')

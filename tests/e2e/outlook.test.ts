@@ -1,0 +1,231 @@
+import { describe, it, expect, beforeAll, afterAll } from 'vitest'
+import { readFileSync } from 'node:fs'
+import type { Browser, BrowserContext, Page } from 'playwright-core'
+import { launchBrowser, newPage, screenshot, VIEWPORTS } from '../support/browser'
+import { startTestServer, type RunningServer } from '../support/server'
+import { createUser, type TestUser } from '../support/factories'
+import { examplePlan, storePlan, type Send } from '../api/results.fixture'
+
+/** Deep comparison: strings, booleans, nulls and shapes exactly; numbers to 1e-9 relative. */
+function compareResults(a: unknown, b: unknown) {
+  const out = { compared: 0, lastBitDifferences: 0, maxRelative: 0, mismatches: [] as string[] }
+  const walk = (x: unknown, y: unknown, path: string) => {
+    if (typeof x === 'number' && typeof y === 'number') {
+      out.compared++
+      if (x === y) return
+      const rel = Math.abs(x - y) / Math.max(1e-9, Math.abs(x), Math.abs(y))
+      out.maxRelative = Math.max(out.maxRelative, rel)
+      if (rel <= 1e-9) out.lastBitDifferences++
+      else if (out.mismatches.length < 20) out.mismatches.push(`${path}: ${x} vs ${y}`)
+      return
+    }
+    if (Array.isArray(x) && Array.isArray(y)) {
+      if (x.length !== y.length) out.mismatches.push(`${path}: length ${x.length} vs ${y.length}`)
+      else x.forEach((v, i) => walk(v, y[i], `${path}[${i}]`))
+      return
+    }
+    if (x && y && typeof x === 'object' && typeof y === 'object') {
+      const kx = Object.keys(x).sort()
+      const ky = Object.keys(y).sort()
+      if (kx.join() !== ky.join()) out.mismatches.push(`${path}: keys ${kx.join()} vs ${ky.join()}`)
+      else for (const k of kx) walk((x as Record<string, unknown>)[k], (y as Record<string, unknown>)[k], `${path}.${k}`)
+      return
+    }
+    if (x !== y) out.mismatches.push(`${path}: ${String(x)} vs ${String(y)}`)
+  }
+  walk(a, b, '')
+  return out
+}
+
+/** Elements sticking out to the right of a phone's screen (for a failure message). */
+function wideElements(page: Page): Promise<string[]> {
+  return page.evaluate(() =>
+    [...document.querySelectorAll('body *')]
+      .filter((e) => e.getBoundingClientRect().right > window.innerWidth + 1)
+      .slice(0, 8)
+      .map((e) => `${e.tagName.toLowerCase()}.${[...e.classList].join('.')} right=${Math.round(e.getBoundingClientRect().right)}`),
+  )
+}
+
+/** Numbers to 9 significant digits, for comparing the discrete answers' text. */
+function roundDeep(v: unknown): unknown {
+  if (typeof v === 'number') return Number(v.toPrecision(9))
+  if (Array.isArray(v)) return v.map(roundDeep)
+  if (v && typeof v === 'object') return Object.fromEntries(Object.entries(v).map(([k, x]) => [k, roundDeep(x)]))
+  return v
+}
+
+/**
+ * Outlook, Try a change and Side by side in Chromium: the winter scenario runs short, more capacity flips
+ * the verdict, the change is saved as a new scenario and compared with the summer one; the page's own
+ * engine results equal the server's. Screenshots (desktop and 360 px phone) go to artifacts/.
+ */
+describe('Outlook and Side by side in Chromium', { timeout: 240_000 }, () => {
+  let server: RunningServer
+  let browser: Browser
+  let user: TestUser
+  let winterId: string
+  let summerId: string
+  let savedId: string
+
+  const send =
+    (cookie: string): Send =>
+    async (method, path, body) => {
+      const res = await fetch(server.url + path, {
+        method,
+        headers: { cookie, 'content-type': 'application/json', accept: 'application/json' },
+        body: body === undefined ? undefined : JSON.stringify(body),
+      })
+      const text = await res.text()
+      return { status: res.status, body: text ? JSON.parse(text) : null }
+    }
+
+  async function signedInPage(viewport: { width: number; height: number }): Promise<{ page: Page; context: BrowserContext }> {
+    const { page, context } = await newPage(browser, viewport)
+    page.on('pageerror', (e) => console.error('[page error]', e.message))
+    page.on('console', (m) => {
+      if (m.type() === 'error') console.error('[console]', m.text())
+    })
+    const [name, value] = user.cookie.split('=') as [string, string]
+    await context.addCookies([{ name, value, url: server.url }])
+    return { page, context }
+  }
+
+  beforeAll(async () => {
+    server = await startTestServer()
+    browser = await launchBrowser()
+    user = await createUser(server.ctx, { displayName: 'Ines Test' })
+    const s = send(user.cookie)
+    winterId = (await storePlan(s, examplePlan('winter-week-lofoten'), { vehicle: 'Blue van', scenario: 'Winter week, Lofoten' }))
+      .scenarioId
+    summerId = (
+      await storePlan(s, examplePlan('summer-month-andalusia'), { vehicle: 'Blue van (summer kit)', scenario: 'Summer month, Andalusia' })
+    ).scenarioId
+  })
+  afterAll(async () => {
+    await browser?.close()
+    await server?.close()
+  })
+
+  it('opens the winter Outlook answer first, and its own results equal the server’s', async () => {
+    const { page, context } = await signedInPage(VIEWPORTS.desktop)
+    await page.goto(`${server.url}/scenarios/${winterId}/outlook`)
+    const verdict = page.locator('[data-test="verdict"]')
+    await verdict.waitFor({ timeout: 60_000 }).catch(async (e) => {
+      await screenshot(page, 'outlook-debug')
+      console.error(page.url(), (await page.locator('body').innerText()).slice(0, 800))
+      throw e
+    })
+    expect(await page.title()).toMatch(/^Outlook/)
+    expect(await verdict.getAttribute('data-status')).toBe('short')
+    expect(await page.locator('[data-test="verdict-headline"]').innerText()).toMatch(/^Runs short on day \d+ at \d\d:00$/)
+
+    // The sizing searches ran in the worker; then the page's results can be downloaded as JSON.
+    const json = page.locator('[data-test="download-json"]')
+    await expect.poll(() => json.isEnabled(), { timeout: 60_000 }).toBe(true)
+    await expect.poll(() => page.locator('[data-test="figure-pack-needed"]').innerText()).toMatch(/\d+ Ah/)
+    const [download] = await Promise.all([page.waitForEvent('download'), json.click()])
+    const browserResults = JSON.parse(readFileSync((await download.path())!, 'utf8'))
+    const serverAnswer = await (await page.request.get(`${server.url}/api/scenarios/${winterId}/results`)).json()
+    // Same engine, same plan JSON, but two JavaScript engines: Node 20's V8 and Chromium's newer V8 round the
+    // last bit of Math.sin/cos/exp differently (the first difference is suncalc's sun elevation), so
+    // bit-for-bit identity across the two is not attainable. Everything discrete must match exactly, every
+    // number to 1e-9 relative. (Within one runtime the identity is exact: tests/api/results.test.ts.)
+    const diff = compareResults(browserResults, serverAnswer.results)
+    expect(diff.mismatches).toEqual([])
+    expect(diff.compared).toBeGreaterThan(1000)
+    console.info(`[identity] ${diff.compared} numbers; ${diff.lastBitDifferences} differ only beyond 1e-9 relative (max ${diff.maxRelative.toExponential(2)})`)
+    for (const k of ['verdict', 'packNeeded', 'solarNeeded', 'autonomy'] as const) {
+      expect(JSON.stringify(roundDeep(browserResults[k]))).toBe(JSON.stringify(roundDeep(serverAnswer.results[k])))
+    }
+    expect(browserResults.verdict.status).toBe(serverAnswer.results.verdict.status)
+    expect(browserResults.packNeeded.capacityAh).toBe(serverAnswer.results.packNeeded.capacityAh)
+
+    // Every figure has its unit, the cold caution sits with the heater figures, charts have table alternatives.
+    expect(await page.locator('[data-test="figure-autonomy"]').innerText()).toMatch(/days?|day/)
+    expect(await page.locator('[data-test="figure-solar-needed"]').innerText()).toMatch(/Wp/)
+    expect(await page.locator('[data-test="figure-cold"] [data-test="cold-caution"]').innerText()).toMatch(/below freezing/)
+    for (const id of ['chart-soc', 'chart-temperature', 'chart-daily', 'chart-appliances']) {
+      const card = page.locator(`[data-test="${id}"]`)
+      expect(await card.locator('canvas').count()).toBe(1)
+      await card.locator('[data-test="chart-table-toggle"]').click()
+      expect(await card.locator('table').count()).toBeGreaterThan(0)
+      await card.locator('[data-test="chart-table-toggle"]').click()
+    }
+    await page.waitForTimeout(300)
+    await screenshot(page, 'outlook-desktop')
+    await context.close()
+  })
+
+  it('moves the capacity control by keyboard until the verdict flips, then saves the change as a new scenario', async () => {
+    const { page, context } = await signedInPage(VIEWPORTS.desktop)
+    await page.goto(`${server.url}/scenarios/${winterId}/outlook`)
+    const verdict = page.locator('[data-test="verdict"]')
+    await verdict.waitFor({ timeout: 60_000 })
+    expect(await verdict.getAttribute('data-status')).toBe('short')
+    const slider = page.locator('[data-test="try-capacity"]')
+    await slider.focus()
+    let presses = 0
+    // Page Up moves the slider ten steps (50 Ah); every move recomputes the trip on the spot.
+    while ((await verdict.getAttribute('data-status')) === 'short' && presses < 12) {
+      await page.keyboard.press('PageUp')
+      presses++
+    }
+    const status = await verdict.getAttribute('data-status')
+    expect(status === 'carries' || status === 'tight').toBe(true)
+    const capacity = Number(await page.locator('input[data-test="try-capacity-input"]').inputValue())
+    expect(capacity).toBeGreaterThan(200)
+    expect(await page.locator('[data-test="verdict-headline"]').innerText()).toMatch(/^Carries the trip/)
+
+    await page.locator('[data-test="try-save"]').click()
+    const name = page.locator('input[data-test="save-name"]')
+    await name.waitFor()
+    await name.fill(`Winter week, ${capacity} Ah`)
+    await page.locator('[data-test="save-confirm"]').click()
+    await page.waitForURL((url) => /\/scenarios\/[^/]+\/outlook$/.test(url.pathname) && !url.pathname.includes(winterId))
+    savedId = page.url().split('/scenarios/')[1]!.split('/')[0]!
+    await expect.poll(() => page.locator('h1').innerText()).toContain(`Winter week, ${capacity} Ah`)
+    const saved = page.locator('[data-test="verdict"]')
+    await saved.waitFor({ timeout: 60_000 })
+    expect(['carries', 'tight']).toContain(await saved.getAttribute('data-status'))
+    // The stored original is unchanged.
+    const original = await (await page.request.get(`${server.url}/api/scenarios/${winterId}/results`)).json()
+    expect(original.results.verdict.status).toBe('short')
+    await context.close()
+  })
+
+  it('compares the saved change with the summer scenario from a shareable link', async () => {
+    const { page, context } = await signedInPage(VIEWPORTS.desktop)
+    await page.goto(`${server.url}/side-by-side?s=${savedId},${summerId}`)
+    const table = page.locator('[data-test="compare-table"]')
+    await table.waitFor({ timeout: 60_000 })
+    expect(await table.locator('thead th').count()).toBe(3)
+    expect(await table.innerText()).toContain('Summer month, Andalusia')
+    expect(await page.locator('[data-test="cmp-lowest"] .ow-best').count()).toBeGreaterThan(0)
+    expect(await page.locator('[data-test="compare-soc"] canvas').count()).toBe(1)
+    expect(await page.locator('[data-test="compare-daily"] canvas').count()).toBe(2)
+    await page.waitForTimeout(300)
+    await screenshot(page, 'compare-desktop')
+    await context.close()
+  })
+
+  it('reads well on a 360 px phone', async () => {
+    const { page, context } = await signedInPage(VIEWPORTS.phone)
+    await page.goto(`${server.url}/scenarios/${winterId}/outlook`)
+    await page.locator('[data-test="verdict"]').waitFor({ timeout: 60_000 })
+    await expect.poll(() => page.locator('[data-test="download-json"]').isEnabled(), { timeout: 60_000 }).toBe(true)
+    await page.waitForTimeout(300)
+    await screenshot(page, 'outlook-phone')
+    const overflow = await page.evaluate(() => document.documentElement.scrollWidth - window.innerWidth)
+    if (overflow > 0) console.error('[overflow]', await wideElements(page))
+    expect(overflow).toBeLessThanOrEqual(0)
+    await page.goto(`${server.url}/side-by-side?s=${savedId},${summerId}`)
+    await page.locator('[data-test="compare-table"]').waitFor({ timeout: 60_000 })
+    await page.waitForTimeout(300)
+    await screenshot(page, 'compare-phone')
+    const overflow2 = await page.evaluate(() => document.documentElement.scrollWidth - window.innerWidth)
+    if (overflow2 > 0) console.error('[overflow]', await wideElements(page))
+    expect(overflow2).toBeLessThanOrEqual(0)
+    await context.close()
+  })
+})
