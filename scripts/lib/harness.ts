@@ -78,7 +78,7 @@ export async function startServerProcess(
   let stderr = ''
   child.stderr?.on('data', (b: Buffer) => (stderr += b.toString()))
   await new Promise<void>((ok, fail) => {
-    const timer = setTimeout(() => fail(new Error('server did not start in 30 s:\n' + stderr)), 30_000)
+    const timer = setTimeout(() => fail(new Error('server did not start in 90 s:\n' + stderr)), 90_000)
     child.stdout?.on('data', (b: Buffer) => {
       if (b.toString().includes('running at')) {
         clearTimeout(timer)
