@@ -60,8 +60,8 @@ const COL_W = 180
 const BOX_W = 156
 const MARGIN_X = 56
 const HALF_MIN_W = 300
-const ROW_Y = [16, 110, 210, 290, 350, 440, 530] as const
-const BOX_H = [64, 70, 48, 20, 56, 52, 76] as const
+const ROW_Y = [16, 130, 230, 310, 370, 460, 550] as const
+const BOX_H = [84, 70, 48, 20, 56, 52, 76] as const
 
 const SOURCE_LABEL: Record<string, string> = {
   solar: 'Solar controller',
