@@ -194,17 +194,21 @@ function simulatePrepared(prep: PreparedTrip): SimulationResult {
 }
 
 /** One hourly run of a validated plan (see parsePlan). */
-export function simulate(plan: Plan): SimulationResult {
-  return simulatePrepared(prepareTrip(fillPlanDefaults(plan)))
+export function simulate(plan: Plan, options: SimulateOptions = {}): SimulationResult {
+  options.onProgress?.(0, 'prepare')
+  const prep = prepareTrip(fillPlanDefaults(plan))
+  options.onProgress?.(0.5, 'simulate')
+  const result = simulatePrepared(prep)
+  options.onProgress?.(1, 'done')
+  return result
 }
 
 /** Classic-method inputs from the run: average daily load without the heater, 3 days of autonomy. */
-function classicFor(prep: PreparedTrip, sim: SimulationResult): ClassicSizingResult {
+function classicFor(prep: PreparedTrip): ClassicSizingResult {
   const b = prep.plan.battery
   const t = prep.plan.trip
   const lead = b.chemistry !== 'lfp'
   const dailyDemandWh = prep.demandW.reduce((s, w) => s + w, 0)
-  void sim
   return classicBatterySizing({
     dailyLoadWh: dailyDemandWh,
     systemVoltageV: b.nominalVoltageV,
@@ -237,7 +241,7 @@ export function analysePlan(plan: Plan, options: SimulateOptions = {}): Analysis
     autonomy: aut,
     packNeeded: pack,
     solarNeeded: solar,
-    classicSizing: classicFor(prep, sim),
+    classicSizing: classicFor(prep),
     chemistryComparison: compareChemistries(prep.plan.battery),
   }
   progress(1, 'done')
