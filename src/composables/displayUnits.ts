@@ -3,7 +3,8 @@
  * user's choice (metric/imperial, °C/°F). Input is accepted in either: a bare number is read in the
  * display unit, a number with a unit ("68 F", "20 °C", "45 lb", "1 in") in that unit.
  *
- * Pure functions; `useDisplayUnits()` (useDisplayUnits.ts) supplies the signed-in user's preferences.
+ * Pure functions; `useDisplayUnits()` (useDisplayUnits.ts) supplies the signed-in user's preferences
+ * from `useUnits()`. Conversion factors are exact by definition (NIST SP 811, 2008 ed., appendix B).
  */
 
 export type UnitSystem = 'metric' | 'imperial'

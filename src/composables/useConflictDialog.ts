@@ -1,7 +1,7 @@
 import { useQuasar } from 'quasar'
 import { ApiError } from '../api/http'
 import ConflictDialog from '../components/common/ConflictDialog.vue'
-import { conflictRows } from './conflictDiff'
+import { changedOnly, conflictRows, rebase } from './conflictDiff'
 
 export type ConflictChoice = 'reload' | 'reapply' | 'cancel'
 
@@ -60,34 +60,45 @@ export function useConflictDialog() {
   }
 
   /**
-   * @param attempt  sends the edit with the given version
+   * @param mine     the edit: a whole record (`whole: true`, e.g. the battery bank or a scenario's fields)
+   *                 or a partial patch of top-level fields
+   * @param attempt  sends `body` with the given version (the first time `body` is `mine`)
    * @param reload   loads the stored version into the screen
    * @param compare  picks the comparable part of a record (e.g. `r => r.battery`); default: the record
    * @returns true when the edit is saved; false when the user reloaded or kept editing
+   *
+   * On "apply my edit again" only what this editor changed is put on top of the stored version:
+   * a whole record is rebased field by field, a patch keeps just its changed fields.
    */
-  async function saveWithConflicts<R extends RecordLike>(opts: {
+  async function saveWithConflicts<R extends RecordLike, B>(opts: {
     what: string
     base: R
-    mine: unknown
+    mine: B
     version: number
-    attempt: (version: number) => Promise<unknown>
+    whole?: boolean
+    attempt: (version: number, body: B) => Promise<unknown>
     reload: () => Promise<void>
     compare?: (record: R) => unknown
   }): Promise<boolean> {
     const pick = opts.compare ?? ((r: R) => r)
     let version = opts.version
-    let base: R = opts.base
+    let body: B = opts.mine
     for (;;) {
       try {
-        await opts.attempt(version)
+        await opts.attempt(version, body)
         return true
       } catch (err) {
         if (!isConflict(err)) throw err
         const current = conflictCurrent(err) as R | null
-        const choice = await ask(opts.what, pick(base), opts.mine, current ? pick(current) : null, current)
+        const base = pick(opts.base)
+        const choice = await ask(opts.what, base, opts.mine, current ? pick(current) : null, current)
         if (choice === 'reapply' && current && typeof current.version === 'number') {
           version = current.version
-          base = current
+          body = opts.whole
+            ? rebase(base, opts.mine, pick(current))
+            : opts.mine && typeof opts.mine === 'object'
+              ? (changedOnly(base, opts.mine as Record<string, unknown>) as B)
+              : opts.mine
           continue
         }
         if (choice === 'reload' || !current) await opts.reload()

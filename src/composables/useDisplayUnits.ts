@@ -1,6 +1,5 @@
-import { computed, ref, type ComputedRef } from 'vue'
+import { computed, type ComputedRef } from 'vue'
 import {
-  DEFAULT_UNIT_PREFS,
   formatQuantity,
   parseQuantityInput,
   toDisplay,
@@ -9,19 +8,13 @@ import {
   type Quantity,
   type UnitPrefs,
 } from './displayUnits'
+import { useUnits } from './useUnits'
 
 /**
- * Local adapter for the user's unit preferences, used by the vehicle and scenario screens.
- * The accounts area's `useUnits()` (src/composables/useUnits.ts) will own the signed-in user's
- * preferences; until it lands, the preferences live here (metric and °C unless `setDisplayUnitPrefs`
- * is called). Switching means changing `prefs` below to read from it; callers stay the same.
+ * Display units for the vehicle and scenario screens, from the signed-in user's preferences
+ * (`useUnits()`, accounts area). Adds what those screens need on top: reading typed input with an
+ * optional unit ("68 F", "45 lb") and the thickness quantity.
  */
-const localPrefs = ref<UnitPrefs>({ ...DEFAULT_UNIT_PREFS })
-
-export function setDisplayUnitPrefs(p: Partial<UnitPrefs>): void {
-  localPrefs.value = { ...localPrefs.value, ...p }
-}
-
 export interface DisplayUnits {
   prefs: ComputedRef<UnitPrefs>
   label: (q: Quantity) => string
@@ -31,7 +24,11 @@ export interface DisplayUnits {
 }
 
 export function useDisplayUnits(): DisplayUnits {
-  const prefs = computed(() => localPrefs.value)
+  const units = useUnits()
+  const prefs = computed<UnitPrefs>(() => ({
+    unitSystem: units.prefs.value.unitSystem,
+    temperatureUnit: units.prefs.value.temperatureUnit,
+  }))
   return {
     prefs,
     label: (q) => unitLabel(q, prefs.value),

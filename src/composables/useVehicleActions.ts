@@ -52,8 +52,9 @@ export function useVehicleActions() {
         base: rec,
         mine: bank,
         version: rec.version,
+        whole: true,
         compare: (r) => r.battery,
-        attempt: (version) => store.saveBattery(bank, version),
+        attempt: (version, body) => store.saveBattery(body, version),
         reload: store.reloadBattery,
       })
       if (saved) ok('Battery bank saved')
@@ -75,8 +76,9 @@ export function useVehicleActions() {
         base: rec,
         mine: inv,
         version: rec.version,
+        whole: true,
         compare: (r) => r.inverter,
-        attempt: (version) => store.saveInverter(inv, version),
+        attempt: (version, body) => store.saveInverter(body, version),
         reload: store.reloadInverter,
       })
       if (saved) ok(inv ? 'Inverter saved' : 'Inverter removed')
@@ -95,7 +97,7 @@ export function useVehicleActions() {
         base: row,
         mine: patch,
         version: row.version,
-        attempt: (version) => store.patchAppliance(row.id, { ...patch, version }),
+        attempt: (version, body) => store.patchAppliance(row.id, { ...body, version }),
         reload: store.reloadAppliances,
       })
     } catch (e) {
@@ -198,7 +200,7 @@ export function useVehicleActions() {
             base: existing,
             mine: fields,
             version: existing.version,
-            attempt: (version) => store.patchSource(existing.id, { ...fields, version }),
+            attempt: (version, body) => store.patchSource(existing.id, { ...body, version }),
             reload: store.reloadSources,
           })
         },
@@ -240,7 +242,7 @@ export function useVehicleActions() {
             base: v,
             mine: input,
             version: v.version,
-            attempt: (version) => store.patchVehicle({ ...input, version }),
+            attempt: (version, body) => store.patchVehicle({ ...body, version }),
             reload: store.reloadVehicle,
           }),
       },

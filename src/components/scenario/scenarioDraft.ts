@@ -111,6 +111,10 @@ export function validateDraft(d: ScenarioDraft): Record<string, string> {
   if (d.place.latitudeDeg === null || d.place.longitudeDeg === null) {
     out['trip.latitudeDeg'] = 'pick a place or type the coordinates'
   }
+  // The schema checks across fields only once every field is valid on its own; say it at once here.
+  if (d.nightLowC !== null && d.dayHighC !== null && d.dayHighC < d.nightLowC) {
+    out['trip.dayHighC'] = 'must not be below the night low'
+  }
   const r = ScenarioCreateSchema.safeParse(draftToInput(d))
   if (!r.success) {
     for (const issue of r.error.issues) {
