@@ -202,6 +202,46 @@ export const ReviewActionsSchema = z.object({
   close: z.boolean(),
 })
 
+/**
+ * A read-only summary of the vehicle and scenario, in the thread itself, so the advisor sees what they comment
+ * on (null once the advisor's access has ended). SI units in the field names.
+ */
+export const PlanSnapshotSchema = z.object({
+  battery: z
+    .object({
+      chemistry: z.string(),
+      cellsSeries: z.number().nullable(),
+      cellsParallel: z.number().nullable(),
+      capacityAh: z.number().nullable(),
+      socFloorFraction: z.number().nullable(),
+      chargeMinC: z.number().nullable(),
+      heaterW: z.number().nullable(),
+    })
+    .nullable(),
+  appliances: z.array(
+    z.object({
+      id: z.string(),
+      name: z.string(),
+      powerW: z.number(),
+      supply: z.string(),
+      quantity: z.number(),
+      hoursPerDay: z.number(),
+    }),
+  ),
+  sources: z.array(z.object({ id: z.string(), name: z.string(), kind: z.string(), ratingText: z.string() })),
+  trip: z
+    .object({
+      placeName: z.string(),
+      startDate: z.string(),
+      days: z.number(),
+      nightLowC: z.number(),
+      dayHighC: z.number(),
+      sky: z.string(),
+    })
+    .nullable(),
+})
+export type PlanSnapshot = z.infer<typeof PlanSnapshotSchema>
+
 /** GET /api/reviews/:reviewId: the thread (opening it marks it read). */
 export const ReviewDetailSchema = ReviewSummarySchema.extend({
   message: z.string(),
@@ -210,6 +250,7 @@ export const ReviewDetailSchema = ReviewSummarySchema.extend({
   comments: z.array(CommentSchema),
   /** Items of the vehicle a comment can be pinned to. */
   pinTargets: z.array(PinTargetSchema),
+  snapshot: PlanSnapshotSchema.nullable(),
   actions: ReviewActionsSchema,
 })
 export type ReviewDetail = z.infer<typeof ReviewDetailSchema>

@@ -5,6 +5,7 @@ import type { Db } from '../../db/client'
 import {
   advisorProfiles,
   appliances,
+  batteryBanks,
   chargeSources,
   reviewComments,
   reviewPayments,
@@ -24,6 +25,7 @@ import {
   type Comment,
   type CommentCreate,
   type PinKind,
+  type PlanSnapshot,
   type PinTarget,
   type ReviewAnswer,
   type ReviewCreate,
@@ -610,6 +612,71 @@ async function pinTargets(db: Db, vehicleId: string): Promise<PinTarget[]> {
   ]
 }
 
+async function planSnapshot(db: Db, r: ReviewRow): Promise<PlanSnapshot> {
+  const [bank] = await db
+    .select({ params: batteryBanks.params })
+    .from(batteryBanks)
+    .where(eq(batteryBanks.vehicleId, r.vehicleId))
+  const apps = await db
+    .select({ id: appliances.id, params: appliances.params })
+    .from(appliances)
+    .where(eq(appliances.vehicleId, r.vehicleId))
+    .orderBy(asc(appliances.seq))
+  const srcs = await db
+    .select({ id: chargeSources.id, params: chargeSources.params })
+    .from(chargeSources)
+    .where(eq(chargeSources.vehicleId, r.vehicleId))
+    .orderBy(asc(chargeSources.seq))
+  const [sc] = r.scenarioId ? await db.select().from(scenarios).where(eq(scenarios.id, r.scenarioId)) : []
+  const b = bank?.params
+  const rating = (p: Record<string, unknown>): string => {
+    if (typeof p.peakPowerWp === 'number') return `${p.peakPowerWp} Wp`
+    const a = [p.outputCurrentA, p.maxCurrentA, p.currentA].find((x) => typeof x === 'number')
+    return typeof a === 'number' ? `${a} A` : ''
+  }
+  return {
+    battery: b
+      ? {
+          chemistry: b.chemistry,
+          cellsSeries: b.cellsSeries ?? null,
+          cellsParallel: b.cellsParallel ?? null,
+          capacityAh:
+            b.capacityAh ?? (b.cellCapacityAh && b.cellsParallel ? b.cellCapacityAh * b.cellsParallel : null),
+          socFloorFraction: b.socFloorFraction ?? null,
+          chargeMinC: b.chargeMinC ?? null,
+          heaterW:
+            b.heater && typeof (b.heater as { powerW?: unknown }).powerW === 'number'
+              ? (b.heater as { powerW: number }).powerW
+              : null,
+        }
+      : null,
+    appliances: apps.map((a) => ({
+      id: a.id,
+      name: a.params.name,
+      powerW: a.params.powerW,
+      supply: a.params.supply,
+      quantity: a.params.quantity,
+      hoursPerDay: a.params.hoursPerDay,
+    })),
+    sources: srcs.map((x) => ({
+      id: x.id,
+      name: x.params.name,
+      kind: x.params.kind,
+      ratingText: rating(x.params as unknown as Record<string, unknown>),
+    })),
+    trip: sc
+      ? {
+          placeName: sc.placeName,
+          startDate: sc.trip.startDate,
+          days: sc.trip.days,
+          nightLowC: sc.trip.nightLowC,
+          dayHighC: sc.trip.dayHighC,
+          sky: String(sc.trip.sky),
+        }
+      : null,
+  }
+}
+
 /** The thread; opening it marks it read for me. */
 export async function getReview(ctx: AppContext, reviewId: string, userId: string): Promise<ReviewDetail> {
   const a = await loadReviewForUser(ctx.db, reviewId, userId)
@@ -637,6 +704,7 @@ export async function getReview(ctx: AppContext, reviewId: string, userId: strin
     closeReason: r.closeReason,
     comments: comments.map((c) => toComment(c, people, r)),
     pinTargets: canRead ? await pinTargets(ctx.db, r.vehicleId) : [],
+    snapshot: canRead ? await planSnapshot(ctx.db, r) : null,
     actions: {
       pay: a.clientWriter && r.state === 'awaiting_payment' && ['unpaid', 'failed'].includes(r.paymentState),
       cancel: a.clientWriter && before,
