@@ -13,6 +13,8 @@ import { advisorsRouter } from '../modules/advisors/routes'
 import { reviewsRouter } from '../modules/reviews/routes'
 import { paymentsWebhookRouter } from '../modules/payments/webhook'
 import { logsRouter } from '../modules/logs/logs.routes'
+import { exchangeRouter } from '../modules/exchange/exchange.routes'
+import { reportsRouter } from '../modules/reports/reports.routes'
 
 /**
  * Every API area, mounted under /api. One line per area: keep edits here to a single line each.
@@ -34,5 +36,7 @@ export function apiRouter(ctx: AppContext): Router {
   api.use('/vehicles', buildSheetRouter(ctx))
   api.use('/', crewRouter(ctx))
   api.use('/', logsRouter(ctx))
+  api.use('/', exchangeRouter(ctx))
+  api.use('/', reportsRouter(ctx))
   return api
 }

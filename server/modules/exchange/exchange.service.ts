@@ -1,0 +1,184 @@
+/**
+ * Plan files (issue 10): export a scenario's plan in our versioned file format, export its hourly results
+ * as CSV, and import a plan file into a vehicle as a new scenario.
+ *
+ * Equipment rule on import (docs/reports.md):
+ * - a vehicle with no equipment yet (no battery bank, no inverter, no appliances, no charge sources) takes
+ *   the file's equipment, so the new scenario runs exactly as the exported one did;
+ * - a vehicle that already has equipment keeps it untouched; the new scenario takes the file's trip, and the
+ *   file's per-appliance usage is carried over to the vehicle's appliances with the same name
+ *   (case-insensitive). What was not carried over is listed in the answer's `notes`.
+ */
+import { eq, sql } from 'drizzle-orm'
+import { makePlanFile, readPlanFile, type PlanFile } from '../../../shared/exchange/format'
+import { hourlyCsv } from '../../../shared/exchange/hourly-csv'
+import type { ApplianceUsage, Plan } from '../../../shared/schemas/plan'
+import type { Scenario } from '../../../shared/schemas/vehicles'
+import type { Db } from '../../db/client'
+import {
+  appliances,
+  batteryBanks,
+  chargeSources,
+  inverters,
+  scenarioApplianceUsage,
+  scenarios,
+  vehicles,
+} from '../../db/schema/index'
+import { HttpError, notFound } from '../../errors'
+import { requireVehicleRole } from '../vehicles/access'
+import { loadApplianceRows } from '../vehicles/appliances.service'
+import { quoted, recordHistory, type Actor } from '../vehicles/records'
+import { buildPlanForScenario } from '../scenarios/plan'
+import { getScenario, loadScenarioForUser } from '../scenarios/scenarios.service'
+import { resultsForPlan } from '../results/results.service'
+
+async function vehicleLabels(db: Db, vehicleId: string): Promise<PlanFile['vehicle']> {
+  const [v] = await db
+    .select({ name: vehicles.name, kind: vehicles.kind, systemVoltageV: vehicles.systemVoltageV })
+    .from(vehicles)
+    .where(eq(vehicles.id, vehicleId))
+  if (!v) throw notFound('That vehicle')
+  return { name: v.name, kind: v.kind, systemVoltageV: v.systemVoltageV as PlanFile['vehicle']['systemVoltageV'] }
+}
+
+/** The plan file of a scenario (read access). */
+export async function exportPlanFile(db: Db, actor: Actor, scenarioId: string, now = new Date()): Promise<PlanFile> {
+  const { row } = await loadScenarioForUser(db, actor.id, scenarioId, 'read')
+  const plan = await buildPlanForScenario(db, row.id)
+  const scenario: PlanFile['scenario'] = { name: row.name }
+  if (row.notes) scenario.notes = row.notes
+  if (row.placeName) scenario.placeName = row.placeName
+  return makePlanFile(await vehicleLabels(db, row.vehicleId), scenario, plan, now.toISOString())
+}
+
+/** The hourly results of a scenario as CSV text (read access), with labels for the file name. */
+export async function exportHourlyCsv(
+  db: Db,
+  actor: Actor,
+  scenarioId: string,
+): Promise<{ csv: string; vehicleName: string; scenarioName: string }> {
+  const { row } = await loadScenarioForUser(db, actor.id, scenarioId, 'read')
+  const plan = await buildPlanForScenario(db, row.id)
+  const { results } = resultsForPlan(plan)
+  const vehicle = await vehicleLabels(db, row.vehicleId)
+  return { csv: hourlyCsv(results), vehicleName: vehicle.name, scenarioName: row.name }
+}
+
+export interface PlanImportResult {
+  scenario: Scenario
+  /** true when the vehicle had no equipment and took the file's. */
+  equipmentCreated: boolean
+  /** The file's format version when it was upgraded on the way in; null when it was current. */
+  upgradedFrom: number | null
+  /** Plain-words notes on what was and was not carried over. */
+  notes: string[]
+}
+
+const norm = (s: string) => s.trim().toLocaleLowerCase('en')
+
+/** Import a plan file (already parsed JSON) into a vehicle as a new scenario. Write access. */
+export async function importPlanFile(
+  db: Db,
+  actor: Actor,
+  vehicleId: string,
+  input: unknown,
+  nameOverride?: string,
+): Promise<PlanImportResult> {
+  await requireVehicleRole(db, actor.id, vehicleId, 'write')
+  const read = readPlanFile(input)
+  if (!read.ok) throw new HttpError(400, 'import_invalid', read.message, read.fields)
+  const file = read.file
+  const plan: Plan = file.plan
+  const name = (nameOverride?.trim() || file.scenario.name).slice(0, 100)
+
+  const { scenarioId, equipmentCreated, notes } = await db.transaction(async (tx) => {
+    // One import at a time per vehicle: two simultaneous imports into an empty vehicle must not both add equipment.
+    await tx.execute(sql`SELECT 1 FROM ${vehicles} WHERE ${vehicles.id} = ${vehicleId} FOR UPDATE`)
+    const [[battery], [inverter], existing, [sourceCount]] = await Promise.all([
+      tx.select({ v: batteryBanks.vehicleId }).from(batteryBanks).where(eq(batteryBanks.vehicleId, vehicleId)),
+      tx.select({ v: inverters.vehicleId }).from(inverters).where(eq(inverters.vehicleId, vehicleId)),
+      loadApplianceRows(tx, vehicleId),
+      tx
+        .select({ n: sql<number>`count(*)::int` })
+        .from(chargeSources)
+        .where(eq(chargeSources.vehicleId, vehicleId)),
+    ])
+    const empty = !battery && !inverter && existing.length === 0 && (sourceCount?.n ?? 0) === 0
+    const notes: string[] = []
+    const usage: Record<string, ApplianceUsage> = {}
+    if (empty) {
+      await tx.insert(batteryBanks).values({ vehicleId, params: plan.battery, updatedBy: actor.id })
+      if (plan.inverter)
+        await tx.insert(inverters).values({ vehicleId, params: plan.inverter, updatedBy: actor.id })
+      // One by one, so the sequence numbers keep the file's order.
+      for (const a of plan.appliances) {
+        const { id: _id, usage: u, ...params } = a
+        const [row] = await tx
+          .insert(appliances)
+          .values({ vehicleId, params, updatedBy: actor.id })
+          .returning({ id: appliances.id })
+        if (u) usage[row!.id] = u
+      }
+      for (const s of plan.sources) {
+        const { id: _id, ...params } = s
+        await tx.insert(chargeSources).values({ vehicleId, kind: s.kind, params, updatedBy: actor.id })
+      }
+      await recordHistory(tx, {
+        vehicleId,
+        entity: 'vehicle',
+        entityId: vehicleId,
+        action: 'import',
+        summary: `Took the equipment from the plan file of ${quoted(file.vehicle.name)}: battery bank, ${plan.appliances.length} appliances, ${plan.sources.length} charge sources${plan.inverter ? ', inverter' : ''}`,
+        after: { battery: plan.battery, inverter: plan.inverter ?? null, appliances: plan.appliances, sources: plan.sources },
+        actorId: actor.id,
+      })
+      notes.push('This vehicle had no equipment yet, so it took the battery bank, appliances, charge sources and inverter from the file.')
+    } else {
+      const byName = new Map(existing.map((r) => [norm(r.params.name), r.id]))
+      const unmatched: string[] = []
+      for (const a of plan.appliances) {
+        if (!a.usage) continue
+        const id = byName.get(norm(a.name))
+        if (id) usage[id] = a.usage
+        else unmatched.push(a.name)
+      }
+      notes.push(
+        'This vehicle already has equipment, so it was kept as it is: the new scenario uses the trip from the file with this vehicle’s battery bank, appliances and charge sources.',
+      )
+      if (unmatched.length > 0)
+        notes.push(`No appliance here has the name of ${unmatched.map(quoted).join(', ')}: their usage in the file was not carried over.`)
+    }
+    const [row] = await tx
+      .insert(scenarios)
+      .values({
+        vehicleId,
+        name,
+        notes: file.scenario.notes ?? '',
+        placeName: file.scenario.placeName ?? '',
+        trip: plan.trip,
+        createdBy: actor.id,
+        updatedBy: actor.id,
+      })
+      .returning()
+    const entries = Object.entries(usage)
+    if (entries.length > 0) {
+      await tx
+        .insert(scenarioApplianceUsage)
+        .values(entries.map(([applianceId, u]) => ({ scenarioId: row!.id, applianceId, usage: u, updatedBy: actor.id })))
+    }
+    await recordHistory(tx, {
+      vehicleId,
+      entity: 'scenario',
+      entityId: row!.id,
+      action: 'import',
+      summary: `Imported scenario ${quoted(row!.name)} from a plan file`,
+      version: row!.version,
+      after: { name: row!.name, notes: row!.notes, placeName: row!.placeName, trip: row!.trip, usage },
+      actorId: actor.id,
+    })
+    return { scenarioId: row!.id, equipmentCreated: empty, notes }
+  })
+  if (read.upgradedFrom !== null)
+    notes.push(`The file was in format version ${read.upgradedFrom} and was upgraded to the current version.`)
+  return { scenario: await getScenario(db, actor, scenarioId), equipmentCreated, upgradedFrom: read.upgradedFrom, notes }
+}
