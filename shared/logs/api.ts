@@ -25,6 +25,8 @@ export type LogCalibrateRequest = z.infer<typeof LogCalibrateRequestSchema>
 export interface LogCheckResult {
   /** Data rows read. */
   rowCount: number
+  /** false when only the first LOG_LIMITS.checkRows rows were read (the import reads them all). */
+  complete: boolean
   errors: LogError[]
   /** All errors, including those not listed. */
   errorCount: number

@@ -74,6 +74,15 @@ export function looksNumeric(cell: string, decimalSeparator: '.' | ',' = '.'): b
 
 /** Parse a number cell; NaN when it is not one. Empty text → null. */
 export function parseNumber(cell: string, decimalSeparator: '.' | ','): number | null {
+  // Fast path for the common case (a plain decimal with a point), without regular expressions.
+  if (decimalSeparator === '.' && cell.length > 0 && cell.length < 24) {
+    const c0 = cell.charCodeAt(0)
+    const c1 = cell.charCodeAt(cell.length - 1)
+    if ((c0 === 45 || (c0 >= 48 && c0 <= 57)) && c1 >= 48 && c1 <= 57 && !/[^0-9.eE+-]/.test(cell)) {
+      const n = Number(cell)
+      if (Number.isFinite(n)) return n
+    }
+  }
   const s = cell.trim()
   if (s === '') return null
   if (NUMBER_DOT.test(s)) {

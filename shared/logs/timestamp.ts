@@ -21,6 +21,12 @@ function zoneOffsetMinutes(zone: string | undefined, fallback: number): number {
   return sign * (Number(digits.slice(0, 2)) * 60 + Number(digits.slice(2, 4)))
 }
 
+const MONTH_DAYS = [31, 28, 31, 30, 31, 30, 31, 31, 30, 31, 30, 31]
+function daysInMonth(y: number, mo: number): number {
+  const leap = (y % 4 === 0 && y % 100 !== 0) || y % 400 === 0
+  return mo === 2 && leap ? 29 : MONTH_DAYS[mo - 1]!
+}
+
 function build(
   y: number,
   mo: number,
@@ -32,12 +38,10 @@ function build(
   offsetMin: number,
 ): number | null {
   if (mo < 1 || mo > 12 || d < 1 || d > 31 || h > 24 || mi > 59 || s > 60) return null
+  // Reject 31 February and the like (no Date object per row: this runs for every sample).
+  if (d > daysInMonth(y, mo)) return null
   const ms = frac ? Math.round(Number(`0.${frac}`) * 1000) : 0
-  const t = Date.UTC(y, mo - 1, d, h, mi, s, ms)
-  // Reject 31 February and the like: the date must survive the round trip.
-  const check = new Date(Date.UTC(y, mo - 1, d))
-  if (check.getUTCMonth() !== mo - 1 || check.getUTCDate() !== d) return null
-  return t - offsetMin * MS_PER_MIN
+  return Date.UTC(y, mo - 1, d, h, mi, s, ms) - offsetMin * MS_PER_MIN
 }
 
 /**

@@ -17,6 +17,8 @@ export const LOG_LIMITS = {
   maxErrorsListed: 200,
   /** Rows shown in the preview. */
   previewRows: 20,
+  /** Rows the preview and the check read; the import reads every row. */
+  checkRows: 50_000,
   maxTemperatureColumns: 8,
   maxCellColumns: 32,
   /** Plausible ranges after unit conversion; outside them a value is called impossible. */

@@ -196,6 +196,9 @@ describe('POST /api/vehicles/:vehicleId/logs/:uploadId/import', () => {
       .set('Cookie', owner.cookie)
       .expect(200)
     expect(Math.abs(cmp2.body.useRatio - 1)).toBeLessThan(Math.abs(cmp.body.useRatio - 1))
+    console.log(
+      `[logs] use ratio before calibration ${cmp.body.useRatio.toFixed(3)}, after ${cmp2.body.useRatio.toFixed(3)}`,
+    )
   })
 
   it('answers an unknown or someone else’s upload with 404', async () => {

@@ -59,6 +59,7 @@ export const importInvalid = (scan: ScanResult) =>
 function checkOf(scan: ScanResult) {
   return {
     rowCount: scan.rowCount,
+    complete: scan.complete,
     errors: scan.errors,
     errorCount: scan.errorCount,
     firstTs: iso(scan.firstTsMs),
@@ -97,7 +98,9 @@ export async function previewUpload(
     .where(eq(logMappings.vehicleId, vehicleId))
   const proposal = proposeMapping(shape, remembered?.mapping ?? null)
   const complete = completeMapping(proposal.mapping)
-  const check = complete.ok ? checkOf(await scanLog(file.path, complete.mapping)) : null
+  const check = complete.ok
+    ? checkOf(await scanLog(file.path, complete.mapping, { maxRows: LOG_LIMITS.checkRows }))
+    : null
   await savePending({
     uploadId: file.uploadId,
     vehicleId,
@@ -139,7 +142,7 @@ async function pendingFor(actor: Actor, vehicleId: string, uploadId: string) {
 /** Check the pending file against a corrected mapping (nothing is stored). */
 export async function checkUpload(actor: Actor, vehicleId: string, uploadId: string, mapping: LogMapping) {
   await pendingFor(actor, vehicleId, uploadId)
-  return checkOf(await scanLog(pendingFile(uploadId), mapping))
+  return checkOf(await scanLog(pendingFile(uploadId), mapping, { maxRows: LOG_LIMITS.checkRows }))
 }
 
 const BATCH_ROWS = 5_000
@@ -404,13 +407,25 @@ export async function calibrateScenario(
     )
   }
   const ratio = Math.round(c.useRatio * 100) / 100
-  const appliances = await loadApplianceRows(db, upload.vehicleId)
+  const appliances = (await loadApplianceRows(db, upload.vehicleId)).map((a) => ({ id: a.id, ...a.params }))
   const usage = await loadUsage(db, scenario.id)
-  const calibrated = calibrateUsage(
-    appliances.map((a) => ({ id: a.id, ...a.params })),
-    usage,
-    ratio,
-  )
+  // The ratio applies to what the plan uses from the pack, but only appliance use is scaled (the heater, the
+  // BMS and inverter idle stay), and windows can fill up. So refine the appliance factor a few times against
+  // the engine until the calibrated plan's use matches the measured use.
+  const plan = await buildPlanForScenario(db, scenario.id)
+  const days = await loadDays(db, upload.id)
+  let factor = c.useRatio
+  let calibrated = calibrateUsage(appliances, usage, factor)
+  for (let i = 0; i < 4; i++) {
+    const trial = {
+      ...plan,
+      appliances: plan.appliances.map((a) => ({ ...a, usage: calibrated.usage[a.id] ?? a.usage })),
+    }
+    const r = compareWithPlan(days, plannedPackDays(simulate(trial))).useRatio
+    if (r === null || Math.abs(r - 1) < 0.01) break
+    factor *= r
+    calibrated = calibrateUsage(appliances, usage, factor)
+  }
   const name = (input.name ?? `${scenario.name} (calibrated ×${ratio.toFixed(2)})`).slice(0, 120)
   const copy = await duplicateScenario(db, actor, scenario.id, { name })
   try {

@@ -17,6 +17,8 @@ import { readCsvBatches } from './csv'
 
 export interface ScanResult {
   rowCount: number
+  /** Every row was read. */
+  complete: boolean
   errors: LogError[]
   errorCount: number
   firstTsMs: number | null
@@ -29,6 +31,8 @@ export interface ScanOptions {
   onSample?: (s: LogSample) => void | Promise<void>
   /** Build daily summaries (the import does; the preview check does not need them). */
   summarise?: boolean
+  /** Stop after this many data rows (the preview); the result then says `complete: false`. */
+  maxRows?: number
 }
 
 export async function scanLog(
@@ -43,6 +47,7 @@ export async function scanLog(
   let validator: LogRowValidator | null = null
   let line = 0
   let rowCount = 0
+  let complete = true
   let firstTsMs: number | null = null
   let lastTsMs: number | null = null
 
@@ -60,6 +65,10 @@ export async function scanLog(
         }
         validator = new LogRowValidator(mapping, resolved.index, columns)
         if (mapping.format.hasHeader) continue
+      }
+      if (options.maxRows !== undefined && rowCount >= options.maxRows) {
+        complete = false
+        break batches
       }
       rowCount++
       if (rowCount > LOG_LIMITS.maxRows) {
@@ -91,6 +100,7 @@ export async function scanLog(
   }
   return {
     rowCount,
+    complete,
     errors: errors.items,
     errorCount: errors.total,
     firstTsMs,
