@@ -94,15 +94,14 @@ export async function importPlanFile(
   const { scenarioId, equipmentCreated, notes } = await db.transaction(async (tx) => {
     // One import at a time per vehicle: two simultaneous imports into an empty vehicle must not both add equipment.
     await tx.execute(sql`SELECT 1 FROM ${vehicles} WHERE ${vehicles.id} = ${vehicleId} FOR UPDATE`)
-    const [[battery], [inverter], existing, [sourceCount]] = await Promise.all([
-      tx.select({ v: batteryBanks.vehicleId }).from(batteryBanks).where(eq(batteryBanks.vehicleId, vehicleId)),
-      tx.select({ v: inverters.vehicleId }).from(inverters).where(eq(inverters.vehicleId, vehicleId)),
-      loadApplianceRows(tx, vehicleId),
-      tx
-        .select({ n: sql<number>`count(*)::int` })
-        .from(chargeSources)
-        .where(eq(chargeSources.vehicleId, vehicleId)),
-    ])
+    // In turn: one transaction client runs one query at a time.
+    const [battery] = await tx.select({ v: batteryBanks.vehicleId }).from(batteryBanks).where(eq(batteryBanks.vehicleId, vehicleId))
+    const [inverter] = await tx.select({ v: inverters.vehicleId }).from(inverters).where(eq(inverters.vehicleId, vehicleId))
+    const existing = await loadApplianceRows(tx, vehicleId)
+    const [sourceCount] = await tx
+      .select({ n: sql<number>`count(*)::int` })
+      .from(chargeSources)
+      .where(eq(chargeSources.vehicleId, vehicleId))
     const empty = !battery && !inverter && existing.length === 0 && (sourceCount?.n ?? 0) === 0
     const notes: string[] = []
     const usage: Record<string, ApplianceUsage> = {}
