@@ -174,6 +174,11 @@ describe('vehicles, equipment and scenarios in Chromium', () => {
     await page.click('[data-test="import-save"]')
     await notified(page, '1 imported')
     expect(await table.locator('tbody tr').count()).toBe(4)
+    // Export: the link downloads the same columns, so an export reads back unchanged.
+    const href = await page.locator('[data-test="appliance-export"]').getAttribute('href')
+    const csv = await page.evaluate(async (u) => (await fetch(u!)).text(), href)
+    expect(csv.split(/\r?\n/)[0]).toBe(header)
+    expect(csv).toContain('Water pump')
 
     // Charging: solar on the roof and a DC-DC charger.
     await page.click('[data-test="tab-charging"]')
