@@ -4,6 +4,7 @@ import { seedUsers } from './users'
 import { seedVehicles } from './vehicles'
 import { seedBuildSheet } from './buildsheet'
 import { seedReviews } from './reviews'
+import { seedLogs } from './logs'
 
 /** Seed the invented demo when the database has no users yet. Returns whether it seeded. */
 export async function seedDemoIfEmpty(db: Db): Promise<boolean> {
@@ -19,4 +20,5 @@ export async function seedDemo(db: Db): Promise<void> {
   await seedVehicles(db)
   await seedBuildSheet(db)
   await seedReviews(db)
+  await seedLogs(db)
 }

@@ -200,7 +200,7 @@ FROM jsonb_to_recordset($2::jsonb) AS d(date date, "sampleCount" int, "coveredH"
  * transaction. Any problem rolls everything back: nothing is stored and the answer lists the problems.
  */
 export async function importUpload(
-  ctx: AppContext,
+  ctx: Pick<AppContext, 'db' | 'pool'>,
   actor: Actor,
   vehicleId: string,
   uploadId: string,
