@@ -1,5 +1,6 @@
 import { ref } from 'vue'
 import { useQuasar } from 'quasar'
+import { useRouter } from 'vue-router'
 import type { BatteryBank, Inverter } from '@shared/schemas/plan'
 import type {
   ApplianceCreate,
@@ -28,6 +29,7 @@ import { useConflictDialog } from './useConflictDialog'
 export function useVehicleActions() {
   const $q = useQuasar()
   const store = useVehiclesStore()
+  const router = useRouter()
   const { saveWithConflicts } = useConflictDialog()
   const batteryError = ref<ApiError | null>(null)
   const inverterError = ref<ApiError | null>(null)
@@ -249,7 +251,37 @@ export function useVehicleActions() {
     })
   }
 
+  /** Owner only: the vehicle with its equipment, scenarios and history. Asks for the name first. */
+  function deleteVehicle(): void {
+    const v = store.current!
+    $q.dialog({
+      title: `Delete “${v.name}”?`,
+      message: `This removes its battery bank, appliances, charging, all ${v.scenarioCount} scenario(s) and its history, for every crew member. Type the vehicle's name to confirm.`,
+      prompt: { model: '', type: 'text', outlined: true, isValid: (t: string) => t.trim() === v.name.trim() },
+      cancel: { flat: true, noCaps: true, label: 'Keep it' },
+      ok: { color: 'negative', unelevated: true, noCaps: true, label: 'Delete' },
+    }).onOk(async () => {
+      try {
+        const gone = await saveWithConflicts({
+          what: 'The vehicle',
+          base: v,
+          mine: {},
+          version: v.version,
+          attempt: (version) => store.removeVehicle(version),
+          reload: store.reloadVehicle,
+        })
+        if (gone) {
+          ok(`“${v.name}” deleted`)
+          await router.push('/vehicles')
+        }
+      } catch (e) {
+        fail(e, 'The vehicle was not deleted')
+      }
+    })
+  }
+
   return {
+    deleteVehicle,
     batteryError,
     inverterError,
     savingBattery,

@@ -112,9 +112,9 @@ export const useVehiclesStore = defineStore('vehicles', () => {
     current.value = await vehiclesApi.patch(vehicleId(), patch)
     vehicles.value = vehicles.value.map((x) => (x.id === current.value!.id ? current.value! : x))
   }
-  async function removeVehicle(): Promise<void> {
+  async function removeVehicle(version?: number): Promise<void> {
     const v = current.value!
-    await vehiclesApi.remove(v.id, v.version)
+    await vehiclesApi.remove(v.id, version ?? v.version)
     vehicles.value = vehicles.value.filter((x) => x.id !== v.id)
     current.value = null
   }
