@@ -171,15 +171,36 @@ class SampleBatch {
   get size(): number {
     return this.t.length
   }
+  /** The insert still running: at most one, so parsing the next batch overlaps the database's work. */
+  private inFlight: Promise<unknown> | null = null
+
+  /** Send the batch; waits only for the previous batch's insert, not for this one. */
   async flush(client: pg.PoolClient, uploadId: string): Promise<void> {
+    if (this.inFlight) await this.inFlight
+    this.inFlight = null
     if (this.size === 0) return
-    await client.query(INSERT_SAMPLES, [uploadId, this.t, this.v, this.i, this.s, this.tc, this.cv])
+    const sent = client.query(INSERT_SAMPLES, [uploadId, this.t, this.v, this.i, this.s, this.tc, this.cv])
+    sent.catch(() => {}) // awaited by the next flush or by drain; this only avoids an unhandled rejection
+    this.inFlight = sent
     this.t = []
     this.v = []
     this.i = []
     this.s = []
     this.tc = []
     this.cv = []
+  }
+
+  /** Send what is left and wait for every insert. */
+  async drain(client: pg.PoolClient, uploadId: string): Promise<void> {
+    await this.flush(client, uploadId)
+    if (this.inFlight) await this.inFlight
+    this.inFlight = null
+  }
+
+  /** Wait for a running insert without sending more (before a rollback). */
+  async settle(): Promise<void> {
+    await this.inFlight?.catch(() => {})
+    this.inFlight = null
   }
 }
 
@@ -226,16 +247,17 @@ export async function importUpload(
     const batch = new SampleBatch()
     scan = await scanLog(pendingFile(uploadId), mapping, {
       summarise: true,
-      onSample: async (s) => {
+      onSample: (s) => {
         batch.push(s)
-        if (batch.size >= BATCH_ROWS) await batch.flush(client, uploadId)
+        return batch.size >= BATCH_ROWS ? batch.flush(client, uploadId) : undefined
       },
     })
     if (scan.errorCount > 0 || scan.rowCount === 0) {
+      await batch.settle()
       await client.query('ROLLBACK')
       throw importInvalid(scan)
     }
-    await batch.flush(client, uploadId)
+    await batch.drain(client, uploadId)
     await client.query(INSERT_DAYS, [uploadId, JSON.stringify(scan.days)])
     await client.query(
       `UPDATE log_uploads SET row_count = $2, first_ts = $3, last_ts = $4, spread_trend = $5 WHERE id = $1`,

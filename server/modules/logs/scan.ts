@@ -88,7 +88,11 @@ export async function scanLog(
       firstTsMs ??= r.sample.tsMs
       lastTsMs = Math.max(lastTsMs ?? r.sample.tsMs, r.sample.tsMs)
       summary?.add(r.sample)
-      if (errors.total === 0 && options.onSample) await options.onSample(r.sample)
+      if (errors.total === 0 && options.onSample) {
+        // Only a flush returns a promise; most rows continue without a trip through the microtask queue.
+        const pending = options.onSample(r.sample)
+        if (pending) await pending
+      }
     }
   }
   if (line === 0) {
