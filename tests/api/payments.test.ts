@@ -32,14 +32,11 @@ describe('paid reviews and payment webhooks', () => {
   const api = () => request(server.url)
 
   async function requestReview(): Promise<string> {
-    const res = await api()
-      .post('/api/reviews')
-      .set('Cookie', f.owner.cookie)
-      .send({
-        scenarioId: f.scenarioId,
-        advisorId: advisor.id,
-        message: 'Is 200 Ah enough for a week in Lofoten?',
-      })
+    const res = await api().post('/api/reviews').set('Cookie', f.owner.cookie).send({
+      scenarioId: f.scenarioId,
+      advisorId: advisor.id,
+      message: 'Is 200 Ah enough for a week in Lofoten?',
+    })
     expect(res.status).toBe(201)
     // one open review per scenario and advisor: close the earlier ones from this file first
     return res.body.id as string
