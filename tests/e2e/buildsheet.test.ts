@@ -94,6 +94,26 @@ describe('build sheet in Chromium', () => {
     expect(totalRow).toContain(formatMoney(expected.total, 'EUR'))
     expect(totalRow).toContain(`${formatMoney(expected.perUsableKWh!, 'EUR')} per usable kWh`)
 
+    // Edit a quantity in place: 4 → 5 cells adds exactly 92.50 to the total.
+    const cells = page.locator('[data-test="parts-table"] tbody tr').first()
+    await cells.locator('td').nth(1).click()
+    const qty = page.locator('.q-popup-edit input')
+    await qty.fill('5')
+    await page.getByRole('button', { name: 'Save' }).click()
+    const edited = summariseParts(
+      DEMO_PARTS.map((p, i) => ({
+        ...p,
+        id: String(i),
+        currency: 'EUR',
+        quantity: i === 0 ? '5' : p.quantity,
+      })),
+      2.304,
+    ).totals[0]!
+    await expect
+      .poll(() => page.locator('[data-test="parts-total-EUR"]').innerText(), { timeout: 10_000 })
+      .toContain(formatMoney(edited.total, 'EUR'))
+    expect(await cells.innerText()).toContain('462.50 EUR')
+
     await screenshot(page, 'buildsheet-desktop')
     await context.close()
   }, 120_000)
