@@ -100,7 +100,7 @@ export async function startServerProcess(
       }
     },
     async stop() {
-      if (child.exitCode !== null) return
+      if (child.exitCode !== null || child.signalCode !== null) return
       const exited = new Promise((ok) => child.once('exit', ok))
       child.kill('SIGTERM')
       await exited

@@ -23,7 +23,7 @@ describe('app shell in Chromium', () => {
     const [name, value] = user.cookie.split('=')
     await context.addCookies([{ name: name!, value: value!, url: server.url }])
     await page.goto(server.url + '/')
-    await expect(page.getByRole('heading', { level: 1 })).toBeDefined()
+    await page.waitForFunction(() => document.title === 'Home · Ohmward')
     expect(await page.title()).toBe('Home · Ohmward')
 
     for (const [name, title] of [
@@ -52,8 +52,8 @@ describe('app shell in Chromium', () => {
     expect(font.icons).toBe(true)
 
     await page.goto(server.url + '/no/such/page')
-    await expect(page.getByText('Nothing here').isVisible()).resolves.toBe(true)
-    expect(await page.title()).toBe('Not found · Ohmward')
+    await page.getByText('Nothing here').waitFor()
+    await page.waitForFunction(() => document.title === 'Not found · Ohmward')
     await screenshot(page, 'shell-desktop')
 
     const outside = requests.filter((u) => !u.startsWith('http://127.0.0.1:') && !u.startsWith('data:'))
