@@ -54,7 +54,13 @@ export async function api<T = unknown>(
     })
   } catch (err) {
     if ((err as Error).name === 'AbortError') throw err
-    throw new ApiError(0, 'offline', 'Could not reach Ohmward. Check your connection and try again.')
+    throw new ApiError(
+      0,
+      'offline',
+      typeof navigator !== 'undefined' && navigator.onLine === false
+        ? 'You are offline, and this is not kept on this device yet (open it once with a signal to have it offline). Nothing was changed.'
+        : 'Could not reach Ohmward. Check your connection and try again.',
+    )
   }
   if (res.status === 204) return undefined as T
   const text = await res.text()
