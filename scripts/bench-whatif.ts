@@ -81,12 +81,38 @@ try {
   await page.locator('[data-test="download-json"]:not([disabled])').waitFor({ timeout: 60_000 })
   const slider = page.locator('[data-test="try-capacity"]')
   await slider.focus()
+  const profile = process.argv.includes('--profile')
+  const cdp = profile ? await context.newCDPSession(page) : null
+  if (cdp) {
+    await cdp.send('Profiler.enable')
+    await cdp.send('Profiler.setSamplingInterval', { interval: 200 })
+    await cdp.send('Profiler.start')
+  }
   for (let i = 0; i < MOVES; i++) {
     await page.keyboard.press('ArrowRight')
     await page.waitForTimeout(120)
   }
+  if (cdp) {
+    // --profile: where the page's thread spent its time during the moves (self time by function).
+    type Node = { id: number; callFrame: { functionName: string; url: string; lineNumber: number }; hitCount?: number }
+    const { profile: p } = (await cdp.send('Profiler.stop')) as unknown as { profile: { nodes: Node[]; samples: number[]; timeDeltas: number[] } }
+    const byId = new Map(p.nodes.map((n) => [n.id, n]))
+    const self = new Map<string, number>()
+    p.samples.forEach((id, i) => {
+      const n = byId.get(id)!
+      const key = `${n.callFrame.functionName || '(anonymous)'} ${n.callFrame.url.split('/').pop()}:${n.callFrame.lineNumber}`
+      self.set(key, (self.get(key) ?? 0) + (p.timeDeltas[i] ?? 0) / 1000)
+    })
+    for (const [k, ms] of [...self.entries()].sort((a, b) => b[1] - a[1]).slice(0, 25)) console.log(`${ms.toFixed(0).padStart(7)} ms  ${k}`)
+  }
   await page.waitForTimeout(300)
   const moves = await page.evaluate(() => (window as unknown as { __owMoves: { busy: number; frame: number }[] }).__owMoves)
+  const engineMs = await page.evaluate(() =>
+    performance
+      .getEntriesByName('ow-simulate')
+      .slice(-40)
+      .map((e) => e.duration),
+  )
   const capacity = await page.locator('input[data-test="try-capacity-input"]').inputValue()
   const sorted = (k: 'busy' | 'frame') => moves.map((m) => m[k]).sort((a, b) => a - b)
   const q = (a: number[], p: number) => a[Math.min(a.length - 1, Math.floor(p * a.length))]!
@@ -101,6 +127,7 @@ try {
     recomputeAndChartsMedianMs: r1(q(busy, 0.5)),
     recomputeAndChartsP95Ms: r1(q(busy, 0.95)),
     recomputeAndChartsMaxMs: r1(busy[busy.length - 1]!),
+    engineRunMedianMs: r1(q([...engineMs].sort((a, b) => a - b), 0.5)),
     toNextFrameMedianMs: r1(q(frame, 0.5)),
     frameBudgetMs: r1(FRAME_MS),
     withinOneFrameP95: q(busy, 0.95) <= FRAME_MS,

@@ -1,5 +1,13 @@
 import { onScopeDispose, ref } from 'vue'
-import { analysePlan, resultsToJson, type Analysis, type Jsonified, type Plan } from '@shared/engine'
+import {
+  analysePlan,
+  resultsToJson,
+  simulate,
+  type Analysis,
+  type Jsonified,
+  type Plan,
+  type SimulationResult,
+} from '@shared/engine'
 import type { EngineJob, EngineReply } from '../workers/engine.worker'
 
 export type AnalysisJson = Jsonified<Analysis>
@@ -31,7 +39,7 @@ export function useEngineWorker() {
   const running = ref(false)
   let worker: Worker | null = null
   let seq = 0
-  let pending: { id: number; resolve: (r: AnalysisJson) => void; reject: (e: Error) => void } | null = null
+  let pending: { id: number; resolve: (r: unknown) => void; reject: (e: Error) => void } | null = null
 
   function spawn(): Worker {
     const w = new Worker(new URL('../workers/engine.worker.ts', import.meta.url), { type: 'module' })
@@ -46,7 +54,7 @@ export function useEngineWorker() {
       pending = null
       running.value = false
       progress.value = null
-      if (m.type === 'done') p.resolve(m.result as AnalysisJson)
+      if (m.type === 'done') p.resolve(m.result)
       else p.reject(new Error(m.message))
     }
     w.onerror = (e) => {
@@ -75,7 +83,17 @@ export function useEngineWorker() {
     progress.value = null
   }
 
+  /** The full analysis (trip run + sizing searches), with progress. */
   function analyse(plan: Plan): Promise<AnalysisJson> {
+    return run('analyse', plan) as Promise<AnalysisJson>
+  }
+
+  /** One trip run (used for long trips, so a what-if move never blocks the page). */
+  function simulateOff(plan: Plan): Promise<Jsonified<SimulationResult>> {
+    return run('simulate', plan) as Promise<Jsonified<SimulationResult>>
+  }
+
+  function run(kind: EngineJob['kind'], plan: Plan): Promise<unknown> {
     cancel()
     const id = ++seq
     running.value = true
@@ -85,7 +103,7 @@ export function useEngineWorker() {
         setTimeout(() => {
           if (id !== seq) return
           try {
-            const r = resultsToJson(analysePlan(plan))
+            const r = resultsToJson(kind === 'simulate' ? simulate(plan) : analysePlan(plan))
             running.value = false
             progress.value = null
             resolve(r)
@@ -99,7 +117,7 @@ export function useEngineWorker() {
     worker ??= spawn()
     return new Promise((resolve, reject) => {
       pending = { id, resolve, reject }
-      const job: EngineJob = { id, kind: 'analyse', plan: JSON.parse(JSON.stringify(plan)) as Plan }
+      const job: EngineJob = { id, kind, plan: JSON.parse(JSON.stringify(plan)) as Plan }
       worker!.postMessage(job)
     })
   }
@@ -110,5 +128,5 @@ export function useEngineWorker() {
     worker = null
   })
 
-  return { analyse, cancel, progress, running }
+  return { analyse, simulate: simulateOff, cancel, progress, running }
 }

@@ -41,7 +41,12 @@ function compareResults(a: unknown, b: unknown) {
 function wideElements(page: Page): Promise<string[]> {
   return page.evaluate(() =>
     [...document.querySelectorAll('body *')]
-      .filter((e) => e.getBoundingClientRect().right > window.innerWidth + 1)
+      .filter((e) => {
+        if (e.getBoundingClientRect().right <= window.innerWidth + 1) return false
+        for (let a = e.parentElement; a; a = a.parentElement)
+          if (getComputedStyle(a).overflowX !== 'visible') return false
+        return true
+      })
       .slice(0, 8)
       .map((e) => `${e.tagName.toLowerCase()}.${[...e.classList].join('.')} right=${Math.round(e.getBoundingClientRect().right)}`),
   )
@@ -66,7 +71,7 @@ describe('Outlook and Side by side in Chromium', { timeout: 240_000 }, () => {
   let user: TestUser
   let winterId: string
   let summerId: string
-  let savedId: string
+  let savedId: string | undefined
 
   const send =
     (cookie: string): Send =>
@@ -216,10 +221,17 @@ describe('Outlook and Side by side in Chromium', { timeout: 240_000 }, () => {
     await expect.poll(() => page.locator('[data-test="download-json"]').isEnabled(), { timeout: 60_000 }).toBe(true)
     await page.waitForTimeout(300)
     await screenshot(page, 'outlook-phone')
+    // Viewport-sized views too, to look at the phone layout at its real size.
+    const dir = process.env.OHMWARD_ARTIFACTS ?? 'artifacts'
+    await page.screenshot({ path: `${dir}/outlook-phone-top.png` })
+    await page.locator('[data-test="chart-soc"]').scrollIntoViewIfNeeded()
+    await page.screenshot({ path: `${dir}/outlook-phone-charts.png` })
+    await page.locator('[data-test="daily-table"]').scrollIntoViewIfNeeded()
+    await page.screenshot({ path: `${dir}/outlook-phone-table.png` })
     const overflow = await page.evaluate(() => document.documentElement.scrollWidth - window.innerWidth)
     if (overflow > 0) console.error('[overflow]', await wideElements(page))
     expect(overflow).toBeLessThanOrEqual(0)
-    await page.goto(`${server.url}/side-by-side?s=${savedId},${summerId}`)
+    await page.goto(`${server.url}/side-by-side?s=${savedId ?? winterId},${summerId}`)
     await page.locator('[data-test="compare-table"]').waitFor({ timeout: 60_000 })
     await page.waitForTimeout(300)
     await screenshot(page, 'compare-phone')
