@@ -19,7 +19,7 @@ async function signedIn(
   browser: Browser,
   server: RunningServer,
   user: TestUser,
-  viewport = VIEWPORTS.desktop,
+  viewport: { width: number; height: number } = VIEWPORTS.desktop,
 ) {
   const { page, context } = await newPage(browser, viewport)
   const value = user.cookie.split('=').slice(1).join('=')
