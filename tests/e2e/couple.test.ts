@@ -88,13 +88,14 @@ describe('couple story', () => {
 
     // --- both see who changed what ---
     await p.page.goto(`${server.url}/vehicles/${vehicleId}/crew`)
+    await p.page.getByRole('heading', { name: /Crew of/ }).waitFor({ timeout: 30_000 })
     const ph = p.page.locator('[data-test="history-entry"]')
-    await ph.filter({ hasText: 'Sigrid Lund joined as editor' }).waitFor()
+    await ph.filter({ hasText: 'Sigrid Lund joined as editor' }).waitFor({ timeout: 30_000 })
     await screenshot(p.page, 'couple-3-partner-history-phone')
 
     await o.page.reload()
     const oh = o.page.locator('[data-test="history-entry"]')
-    await oh.filter({ hasText: 'Sigrid Lund joined as editor' }).waitFor()
+    await oh.filter({ hasText: 'Sigrid Lund joined as editor' }).waitFor({ timeout: 30_000 })
     const ownerSees = await oh.allInnerTexts()
     expect(
       ownerSees.some((t) => t.includes(`Invited ${partner.email} as editor`) && t.includes('Ingrid Aas')),
