@@ -4,6 +4,7 @@ import type { Db } from '../../db/client'
 import { vehicleMemberships } from '../../db/schema/index'
 import { forbidden, notFound } from '../../errors'
 import type { DbOrTx } from './records'
+import { reviewAdvisorRole } from '../crew/access'
 
 /** What an action needs: read (every member), write (owner, editor), owner (owner only). */
 export type VehicleNeed = 'read' | 'write' | 'owner'
@@ -35,7 +36,9 @@ export async function loadMembership(
     .from(vehicleMemberships)
     .where(and(eq(vehicleMemberships.vehicleId, vehicleId), eq(vehicleMemberships.userId, userId)))
     .limit(1)
-  return row ?? null
+  if (row) return row
+  // An advisor with an open review on this vehicle reads it (read-only) until the review is closed.
+  return (await reviewAdvisorRole(db, userId, vehicleId)) ? { vehicleId, userId, role: 'advisor' } : null
 }
 
 export function roleAllows(role: VehicleRole, need: VehicleNeed): boolean {
