@@ -13,7 +13,12 @@
  */
 import { z } from 'zod'
 import { parsePlan, type Plan } from '../schemas/plan.ts'
-import { SYSTEM_VOLTAGES_V, VEHICLE_KINDS, type SystemVoltageV, type VehicleKind } from '../schemas/vehicles.ts'
+import {
+  SYSTEM_VOLTAGES_V,
+  VEHICLE_KINDS,
+  type SystemVoltageV,
+  type VehicleKind,
+} from '../schemas/vehicles.ts'
 
 export const PLAN_FILE_FORMAT = 'ohmward-plan'
 export const PLAN_FILE_VERSION = 2
@@ -87,9 +92,11 @@ export function detectVersion(doc: unknown): number | string {
     if ('battery' in doc || 'trip' in doc || 'appliances' in doc) return 1
     return 'This is not an Ohmward plan file: it has no "format" field and no plan in it.'
   }
-  if (doc.format !== PLAN_FILE_FORMAT) return `This is not an Ohmward plan file ("format" is not "${PLAN_FILE_FORMAT}").`
+  if (doc.format !== PLAN_FILE_FORMAT)
+    return `This is not an Ohmward plan file ("format" is not "${PLAN_FILE_FORMAT}").`
   const v = doc.formatVersion
-  if (typeof v !== 'number' || !Number.isInteger(v) || v < 1) return '"formatVersion" must be a whole number from 1.'
+  if (typeof v !== 'number' || !Number.isInteger(v) || v < 1)
+    return '"formatVersion" must be a whole number from 1.'
   if (v > PLAN_FILE_VERSION)
     return `This file was written by a newer Ohmward (format version ${v}; this one reads up to ${PLAN_FILE_VERSION}).`
   return v
@@ -116,7 +123,8 @@ export function readPlanFile(input: unknown): ReadPlanFileResult {
   if (!header.success) {
     for (const issue of header.error.issues) {
       if (issue.code === 'unrecognized_keys') {
-        for (const key of issue.keys) (fields[[...issue.path, key].join('.')] ??= []).push('is not a known field')
+        for (const key of issue.keys)
+          (fields[[...issue.path, key].join('.')] ??= []).push('is not a known field')
       } else {
         const key = issue.path.length ? issue.path.map(String).join('.') : '(root)'
         const msg = issue.code === 'invalid_type' && issue.input === undefined ? 'is required' : issue.message
@@ -125,10 +133,16 @@ export function readPlanFile(input: unknown): ReadPlanFileResult {
     }
   }
   const plan = parsePlan(doc.plan)
-  if (!plan.ok) for (const [k, v] of Object.entries(plan.fields)) (fields[k === '(root)' ? 'plan' : `plan.${k}`] ??= []).push(...v)
+  if (!plan.ok)
+    for (const [k, v] of Object.entries(plan.fields))
+      (fields[k === '(root)' ? 'plan' : `plan.${k}`] ??= []).push(...v)
   if (!header.success || !plan.ok) {
     const n = Object.keys(fields).length
-    return { ok: false, message: `The plan file has ${n} problem${n === 1 ? '' : 's'}; nothing was imported.`, fields }
+    return {
+      ok: false,
+      message: `The plan file has ${n} problem${n === 1 ? '' : 's'}; nothing was imported.`,
+      fields,
+    }
   }
   return {
     ok: true,
@@ -150,7 +164,12 @@ export function makePlanFile(
 /** A safe file name from labels: "Lingon van - Winter week.ohmward.json". */
 export function fileNameFor(parts: readonly string[], ext: string): string {
   const base = parts
-    .map((p) => p.replace(/[^\p{L}\p{N} ._-]+/gu, ' ').replace(/\s+/g, ' ').trim())
+    .map((p) =>
+      p
+        .replace(/[^\p{L}\p{N} ._-]+/gu, ' ')
+        .replace(/\s+/g, ' ')
+        .trim(),
+    )
     .filter(Boolean)
     .join(' - ')
     .slice(0, 120)

@@ -20,7 +20,11 @@ export interface PlanImportResult {
 }
 
 /** POST the parsed file; 400 `import_invalid` comes back as an ApiError with `fields`. */
-export async function importPlanFile(vehicleId: string, file: unknown, name?: string): Promise<PlanImportResult> {
+export async function importPlanFile(
+  vehicleId: string,
+  file: unknown,
+  name?: string,
+): Promise<PlanImportResult> {
   const q = name?.trim() ? `?name=${enc(name.trim())}` : ''
   return http.post<PlanImportResult>(`/vehicles/${enc(vehicleId)}/scenarios/import${q}`, file)
 }

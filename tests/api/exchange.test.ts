@@ -20,13 +20,19 @@ afterAll(() => ctx.pool.end())
 const sender =
   (user: TestUser): Send =>
   async (method, path, body) => {
-    const req = request(app)[method.toLowerCase() as 'get' | 'post' | 'put' | 'patch'](path).set('Cookie', user.cookie)
+    const req = request(app)
+      [method.toLowerCase() as 'get' | 'post' | 'put' | 'patch'](path)
+      .set('Cookie', user.cookie)
     const res = body === undefined ? await req : await req.send(body as object)
     return { status: res.status, body: res.body }
   }
 
 /** Map each id of `b`'s plan to the id at the same place in `a`'s, so two JSON texts compare exactly. */
-function sameIds(text: string, from: { appliances: { id: string }[]; sources: { id: string }[] }, to: typeof from): string {
+function sameIds(
+  text: string,
+  from: { appliances: { id: string }[]; sources: { id: string }[] },
+  to: typeof from,
+): string {
   let out = text
   from.appliances.forEach((x, i) => (out = out.split(x.id).join(to.appliances[i]!.id)))
   from.sources.forEach((x, i) => (out = out.split(x.id).join(to.sources[i]!.id)))
@@ -51,7 +57,9 @@ describe('plan files', () => {
   })
 
   it('exports a versioned plan file as a download; strangers get 404', async () => {
-    const res = await request(app).get(`/api/scenarios/${source.scenarioId}/export.json`).set('Cookie', alice.cookie)
+    const res = await request(app)
+      .get(`/api/scenarios/${source.scenarioId}/export.json`)
+      .set('Cookie', alice.cookie)
     expect(res.status).toBe(200)
     expect(res.headers['content-type']).toContain('application/json')
     expect(res.headers['content-disposition']).toContain(`${names.vehicle} - Winter week.ohmward.json`)
@@ -60,15 +68,20 @@ describe('plan files', () => {
     expect(Number.isNaN(Date.parse(res.body.exportedAt))).toBe(false)
     expect(res.body.vehicle).toEqual({ name: names.vehicle, kind: 'van', systemVoltageV: 12 })
     expect(res.body.scenario.name).toBe('Winter week')
-    const plan = await request(app).get(`/api/scenarios/${source.scenarioId}/plan`).set('Cookie', alice.cookie)
+    const plan = await request(app)
+      .get(`/api/scenarios/${source.scenarioId}/plan`)
+      .set('Cookie', alice.cookie)
     expect(res.body.plan).toEqual(plan.body)
-    const stranger = await request(app).get(`/api/scenarios/${source.scenarioId}/export.json`).set('Cookie', bob.cookie)
+    const stranger = await request(app)
+      .get(`/api/scenarios/${source.scenarioId}/export.json`)
+      .set('Cookie', bob.cookie)
     expect(stranger.status).toBe(404)
   })
 
   it('round trip: another account imports the file into a new vehicle and gets the identical plan and results', async () => {
-    const file = (await request(app).get(`/api/scenarios/${source.scenarioId}/export.json`).set('Cookie', alice.cookie))
-      .body
+    const file = (
+      await request(app).get(`/api/scenarios/${source.scenarioId}/export.json`).set('Cookie', alice.cookie)
+    ).body
     const v = await request(app)
       .post('/api/vehicles')
       .set('Cookie', bob.cookie)
@@ -85,7 +98,10 @@ describe('plan files', () => {
 
     const get = (user: TestUser, id: string, what: 'plan' | 'results') =>
       request(app).get(`/api/scenarios/${id}/${what}`).set('Cookie', user.cookie)
-    const [planA, planB] = [(await get(alice, source.scenarioId, 'plan')).body, (await get(bob, imp.body.scenario.id, 'plan')).body]
+    const [planA, planB] = [
+      (await get(alice, source.scenarioId, 'plan')).body,
+      (await get(bob, imp.body.scenario.id, 'plan')).body,
+    ]
     expect(planB.appliances).toHaveLength(planA.appliances.length)
     expect(planB.appliances[0].id).not.toBe(planA.appliances[0].id) // new records in the new vehicle
     expect(sameIds(JSON.stringify(planB), planB, planA)).toBe(JSON.stringify(planA))
@@ -97,9 +113,12 @@ describe('plan files', () => {
     expect(sameIds(JSON.stringify(resB), planB, planA)).toBe(JSON.stringify(resA))
 
     // And exporting again gives the same file, apart from the export time.
-    const again = (await request(app).get(`/api/scenarios/${imp.body.scenario.id}/export.json`).set('Cookie', bob.cookie))
-      .body
-    expect(sameIds(JSON.stringify({ ...again, exportedAt: '' }), planB, planA)).toBe(JSON.stringify({ ...file, exportedAt: '' }))
+    const again = (
+      await request(app).get(`/api/scenarios/${imp.body.scenario.id}/export.json`).set('Cookie', bob.cookie)
+    ).body
+    expect(sameIds(JSON.stringify({ ...again, exportedAt: '' }), planB, planA)).toBe(
+      JSON.stringify({ ...file, exportedAt: '' }),
+    )
   })
 
   it('upgrades a version 1 file (a bare plan document) and imports it', async () => {
@@ -116,7 +135,9 @@ describe('plan files', () => {
     expect(imp.body.upgradedFrom).toBe(1)
     expect(imp.body.scenario.name).toBe('Autumn at the cabin')
     expect(imp.body.notes.join(' ')).toContain('format version 1')
-    const plan = (await request(app).get(`/api/scenarios/${imp.body.scenario.id}/plan`).set('Cookie', bob.cookie)).body
+    const plan = (
+      await request(app).get(`/api/scenarios/${imp.body.scenario.id}/plan`).set('Cookie', bob.cookie)
+    ).body
     expect(plan.trip).toEqual(bare.trip)
     expect(plan.appliances.map((a: { name: string }) => a.name)).toEqual(bare.appliances.map((a) => a.name))
     expect(plan.battery).toEqual(bare.battery)
@@ -140,9 +161,14 @@ describe('plan files', () => {
       .set('Cookie', bob.cookie)
       .send({ name: `Empty ${uniq()}`, kind: 'van', systemVoltageV: 12 })
     const url = `/api/vehicles/${v.body.id}/scenarios/import`
-    const good = (await request(app).get(`/api/scenarios/${source.scenarioId}/export.json`).set('Cookie', alice.cookie))
-      .body
-    const post = (body: unknown) => request(app).post(url).set('Cookie', bob.cookie).send(body as object)
+    const good = (
+      await request(app).get(`/api/scenarios/${source.scenarioId}/export.json`).set('Cookie', alice.cookie)
+    ).body
+    const post = (body: unknown) =>
+      request(app)
+        .post(url)
+        .set('Cookie', bob.cookie)
+        .send(body as object)
 
     const notOurs = await post({ hello: 'world' })
     expect(notOurs.status).toBe(400)
@@ -163,7 +189,12 @@ describe('plan files', () => {
     expect(bad.body.error.code).toBe('import_invalid')
     const fields = Object.keys(bad.body.error.fields)
     expect(fields).toEqual(
-      expect.arrayContaining(['plan.battery.capacityAh', 'plan.trip.days', 'vehicle.kind', 'plan.appliances.0.powerWatts']),
+      expect.arrayContaining([
+        'plan.battery.capacityAh',
+        'plan.trip.days',
+        'vehicle.kind',
+        'plan.appliances.0.powerWatts',
+      ]),
     )
     expect(bad.body.error.fields['plan.appliances.0.powerWatts']).toEqual(['is not a known field'])
 
@@ -177,20 +208,28 @@ describe('plan files', () => {
     expect(await countScenarios(bob, v.body.id)).toBe(0)
     const battery = await request(app).get(`/api/vehicles/${v.body.id}/battery`).set('Cookie', bob.cookie)
     expect(battery.body.battery).toBeNull()
-    const appliances = await request(app).get(`/api/vehicles/${v.body.id}/appliances`).set('Cookie', bob.cookie)
+    const appliances = await request(app)
+      .get(`/api/vehicles/${v.body.id}/appliances`)
+      .set('Cookie', bob.cookie)
     expect(appliances.body.items).toHaveLength(0)
   })
 
   it('keeps a vehicle’s own equipment and carries usage over by appliance name', async () => {
-    const file = (await request(app).get(`/api/scenarios/${source.scenarioId}/export.json`).set('Cookie', alice.cookie))
-      .body
-    const other = await storePlan(sender(bob), examplePlan('winter-week-lofoten'), { vehicle: `Own ${uniq()}`, scenario: 'Mine' })
+    const file = (
+      await request(app).get(`/api/scenarios/${source.scenarioId}/export.json`).set('Cookie', alice.cookie)
+    ).body
+    const other = await storePlan(sender(bob), examplePlan('winter-week-lofoten'), {
+      vehicle: `Own ${uniq()}`,
+      scenario: 'Mine',
+    })
     // Change the trip in the file and give one usage override to a name the vehicle has, one to a name it has not.
     file.plan.trip.nightLowC = -21
     file.plan.appliances[0].usage = { hoursPerDay: 20 }
     file.plan.appliances[1].name = 'Something else entirely'
     file.plan.appliances[1].usage = { enabled: false }
-    const before = (await request(app).get(`/api/vehicles/${other.vehicleId}/appliances`).set('Cookie', bob.cookie)).body
+    const before = (
+      await request(app).get(`/api/vehicles/${other.vehicleId}/appliances`).set('Cookie', bob.cookie)
+    ).body
     const imp = await request(app)
       .post(`/api/vehicles/${other.vehicleId}/scenarios/import`)
       .set('Cookie', bob.cookie)
@@ -199,7 +238,9 @@ describe('plan files', () => {
     expect(imp.status).toBe(201)
     expect(imp.body.equipmentCreated).toBe(false)
     expect(imp.body.notes.join(' ')).toContain('“Something else entirely”')
-    const after = (await request(app).get(`/api/vehicles/${other.vehicleId}/appliances`).set('Cookie', bob.cookie)).body
+    const after = (
+      await request(app).get(`/api/vehicles/${other.vehicleId}/appliances`).set('Cookie', bob.cookie)
+    ).body
     expect(after).toEqual(before)
     expect(imp.body.scenario.trip.nightLowC).toBe(-21)
     const firstId = before.items[0].id
@@ -212,9 +253,13 @@ describe('plan files', () => {
   })
 
   it('refuses an import from someone who cannot write to the vehicle', async () => {
-    const file = (await request(app).get(`/api/scenarios/${source.scenarioId}/export.json`).set('Cookie', alice.cookie))
-      .body
-    const res = await request(app).post(`/api/vehicles/${source.vehicleId}/scenarios/import`).set('Cookie', bob.cookie).send(file)
+    const file = (
+      await request(app).get(`/api/scenarios/${source.scenarioId}/export.json`).set('Cookie', alice.cookie)
+    ).body
+    const res = await request(app)
+      .post(`/api/vehicles/${source.vehicleId}/scenarios/import`)
+      .set('Cookie', bob.cookie)
+      .send(file)
     expect(res.status).toBe(404)
   })
 })
@@ -222,7 +267,10 @@ describe('plan files', () => {
 describe('GET /api/scenarios/:scenarioId/hourly.csv', () => {
   it('has one row per simulated hour with the results’ values', async () => {
     const user = await createUser(ctx)
-    const s = await storePlan(sender(user), examplePlan('winter-week-lofoten'), { vehicle: `Csv ${uniq()}`, scenario: 'Hours' })
+    const s = await storePlan(sender(user), examplePlan('winter-week-lofoten'), {
+      vehicle: `Csv ${uniq()}`,
+      scenario: 'Hours',
+    })
     const res = await request(app).get(`/api/scenarios/${s.scenarioId}/hourly.csv`).set('Cookie', user.cookie)
     expect(res.status).toBe(200)
     expect(res.headers['content-type']).toContain('text/csv')
@@ -230,8 +278,9 @@ describe('GET /api/scenarios/:scenarioId/hourly.csv', () => {
     const parsed = Papa.parse<Record<string, string>>(res.text.trim(), { header: true })
     expect(parsed.errors).toEqual([])
     expect(parsed.meta.fields).toEqual([...HOURLY_CSV_COLUMNS])
-    const results = (await request(app).get(`/api/scenarios/${s.scenarioId}/results`).set('Cookie', user.cookie)).body
-      .results
+    const results = (
+      await request(app).get(`/api/scenarios/${s.scenarioId}/results`).set('Cookie', user.cookie)
+    ).body.results
     expect(parsed.data).toHaveLength(results.hours)
     expect(parsed.data[0]!.date).toBe(results.days[0].date)
     const h = 30

@@ -27,7 +27,9 @@ afterAll(async () => {
 const sender =
   (user: TestUser): Send =>
   async (method, path, body) => {
-    const req = request(app)[method.toLowerCase() as 'get' | 'post' | 'put' | 'patch'](path).set('Cookie', user.cookie)
+    const req = request(app)
+      [method.toLowerCase() as 'get' | 'post' | 'put' | 'patch'](path)
+      .set('Cookie', user.cookie)
     const res = body === undefined ? await req : await req.send(body as object)
     return { status: res.status, body: res.body }
   }
@@ -50,7 +52,9 @@ function pdfText(file: string): string {
 }
 
 const fmt = (x: number, digits = 0) =>
-  x.toLocaleString('en-GB', { minimumFractionDigits: digits, maximumFractionDigits: digits }).replace(/^-/, '\u2212')
+  x
+    .toLocaleString('en-GB', { minimumFractionDigits: digits, maximumFractionDigits: digits })
+    .replace(/^-/, '\u2212')
 const energy = (wh: number) => (Math.abs(wh) >= 1000 ? `${fmt(wh / 1000, 2)} kWh` : `${fmt(wh)} Wh`)
 
 const EXAMPLES: ExampleName[] = ['winter-week-lofoten', 'summer-month-andalusia', 'cabin-autumn-overcast']
@@ -58,7 +62,10 @@ const EXAMPLES: ExampleName[] = ['winter-week-lofoten', 'summer-month-andalusia'
 describe('GET /api/scenarios/:scenarioId/report.pdf', () => {
   let owner: TestUser
   let stranger: TestUser
-  const stored = new Map<ExampleName, { vehicleId: string; scenarioId: string; vehicle: string; scenario: string }>()
+  const stored = new Map<
+    ExampleName,
+    { vehicleId: string; scenarioId: string; vehicle: string; scenario: string }
+  >()
 
   beforeAll(async () => {
     owner = await createUser(ctx)
@@ -104,8 +111,9 @@ describe('GET /api/scenarios/:scenarioId/report.pdf', () => {
 
       const file = join(work, `${name}.pdf`)
       writeFileSync(file, pdf)
-      const results = (await request(app).get(`/api/scenarios/${s.scenarioId}/results`).set('Cookie', owner.cookie))
-        .body.results
+      const results = (
+        await request(app).get(`/api/scenarios/${s.scenarioId}/results`).set('Cookie', owner.cookie)
+      ).body.results
       const text = pdfText(file)
 
       // Labels from the stored data.
@@ -113,20 +121,32 @@ describe('GET /api/scenarios/:scenarioId/report.pdf', () => {
       expect(text).toContain(s.scenario)
       // The verdict line the engine's status leads to.
       const headline =
-        results.verdict.status === 'short' ? /Runs short on day \d+ at \d\d:00|Cannot serve every load/ : /Carries the trip/
+        results.verdict.status === 'short'
+          ? /Runs short on day \d+ at \d\d:00|Cannot serve every load/
+          : /Carries the trip/
       expect(text).toMatch(headline)
       // Key figures, formatted as the report formats them, from the results API.
       const s1 = results.summary
       expect(text).toContain(`Lowest state of charge`)
       expect(text).toContain(`${fmt(s1.lowestSocFraction * 100)} %`)
       expect(text).toContain(`${fmt(s1.finalSocFraction * 100)} %`)
-      if (results.packNeeded.capacityAh !== null) expect(text).toContain(`${fmt(results.packNeeded.capacityAh)} Ah`)
-      if (results.solarNeeded.peakPowerWp !== null) expect(text).toContain(`${fmt(results.solarNeeded.peakPowerWp)} Wp`)
+      if (results.packNeeded.capacityAh !== null)
+        expect(text).toContain(`${fmt(results.packNeeded.capacityAh)} Ah`)
+      if (results.solarNeeded.peakPowerWp !== null)
+        expect(text).toContain(`${fmt(results.solarNeeded.peakPowerWp)} Wp`)
       if (results.autonomy.days !== null) expect(text).toContain(`${fmt(results.autonomy.days, 1)} days`)
       expect(text).toContain(energy(s1.energyOutWh))
       expect(text).toContain(`${fmt(results.classicSizing.capacityAh)} Ah`)
       // Each section is there.
-      for (const section of ['Charts', 'Day by day', 'Appliances', 'Charge sources', 'Build sheet', 'Protection rules', 'Cables'])
+      for (const section of [
+        'Charts',
+        'Day by day',
+        'Appliances',
+        'Charge sources',
+        'Build sheet',
+        'Protection rules',
+        'Cables',
+      ])
         expect(text).toContain(section)
       expect(text).toContain('High-current DC can start fires')
       // Every appliance and every trip day.
@@ -165,7 +185,13 @@ describe('GET /api/scenarios/:scenarioId/report.pdf', () => {
       })
       .returning()
     await ctx.db.insert(reviewComments).values([
-      { reviewId: review!.id, authorId: advisor.id, body: 'Fridge duty cycle looks low for a 50 L box.', pinKind: 'appliance', pinLabel: 'Compressor fridge 50 L' },
+      {
+        reviewId: review!.id,
+        authorId: advisor.id,
+        body: 'Fridge duty cycle looks low for a 50 L box.',
+        pinKind: 'appliance',
+        pinLabel: 'Compressor fridge 50 L',
+      },
       { reviewId: review!.id, authorId: owner.id, body: 'Client question that stays out of the report.' },
       { reviewId: review!.id, authorId: null, kind: 'event', body: 'Payment received.' },
     ])

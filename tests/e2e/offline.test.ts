@@ -32,7 +32,9 @@ describe('Offline field use in Chromium', { timeout: 300_000 }, () => {
       return { status: res.status, body: text ? JSON.parse(text) : null }
     }
 
-  async function signedInPage(serviceWorkers: 'allow' | 'block'): Promise<{ page: Page; context: BrowserContext }> {
+  async function signedInPage(
+    serviceWorkers: 'allow' | 'block',
+  ): Promise<{ page: Page; context: BrowserContext }> {
     const { page, context } = await newPage(browser, VIEWPORTS.desktop, { serviceWorkers })
     page.on('pageerror', (e) => console.error('[page error]', e.message))
     const [name, value] = user.cookie.split('=') as [string, string]
@@ -64,11 +66,14 @@ describe('Offline field use in Chromium', { timeout: 300_000 }, () => {
     await page.evaluate(async () => {
       await navigator.serviceWorker.ready
     })
-    await expect.poll(() => page.evaluate(() => navigator.serviceWorker.controller !== null), { timeout: 30_000 }).toBe(true)
+    await expect
+      .poll(() => page.evaluate(() => navigator.serviceWorker.controller !== null), { timeout: 30_000 })
+      .toBe(true)
     const precached = await page.evaluate(async () => {
       const names = await caches.keys()
       const urls: string[] = []
-      for (const n of names) for (const r of await (await caches.open(n)).keys()) urls.push(new URL(r.url).pathname)
+      for (const n of names)
+        for (const r of await (await caches.open(n)).keys()) urls.push(new URL(r.url).pathname)
       return urls
     })
     // Open the vehicle again now that the worker controls the page, as a user going back to it would.
@@ -80,7 +85,9 @@ describe('Offline field use in Chromium', { timeout: 300_000 }, () => {
     await page.goto(`${server.url}/scenarios/${scenarioId}/outlook`)
     const verdict = page.locator('[data-test="verdict"]')
     await verdict.waitFor({ timeout: 60_000 })
-    await expect.poll(() => page.locator('[data-test="figure-pack-needed"]').innerText(), { timeout: 60_000 }).toMatch(/\d+ Ah/)
+    await expect
+      .poll(() => page.locator('[data-test="figure-pack-needed"]').innerText(), { timeout: 60_000 })
+      .toMatch(/\d+ Ah/)
     const headlineOnline = await page.locator('[data-test="verdict-headline"]').innerText()
     expect(await verdict.getAttribute('data-status')).toBe('short')
 
@@ -92,7 +99,9 @@ describe('Offline field use in Chromium', { timeout: 300_000 }, () => {
     expect(await page.locator('h1').innerText()).toContain('Winter week offline')
     expect(await page.locator('[data-test="verdict-headline"]').innerText()).toBe(headlineOnline)
     // The sizing searches run in the engine worker, loaded from the precache.
-    await expect.poll(() => page.locator('[data-test="figure-pack-needed"]').innerText(), { timeout: 60_000 }).toMatch(/\d+ Ah/)
+    await expect
+      .poll(() => page.locator('[data-test="figure-pack-needed"]').innerText(), { timeout: 60_000 })
+      .toMatch(/\d+ Ah/)
     // Still signed in (the account answer came from the cache): no sign-in page.
     expect(page.url()).toContain(`/scenarios/${scenarioId}/outlook`)
 
@@ -137,9 +146,12 @@ describe('Offline field use in Chromium', { timeout: 300_000 }, () => {
     await name.waitFor()
     await name.fill('Winter week, bigger pack')
     await page.locator('[data-test="save-confirm"]').click()
-    await page.waitForURL((url) => /\/scenarios\/[^/]+\/outlook$/.test(url.pathname) && !url.pathname.includes(scenarioId), {
-      timeout: 30_000,
-    })
+    await page.waitForURL(
+      (url) => /\/scenarios\/[^/]+\/outlook$/.test(url.pathname) && !url.pathname.includes(scenarioId),
+      {
+        timeout: 30_000,
+      },
+    )
     // (A tried pack size is saved on a copy of the vehicle, so count across vehicles.)
     const after = await send(user.cookie)('GET', '/api/scenarios')
     expect(after.body.total).toBe(2)
@@ -197,10 +209,13 @@ describe('Offline field use in Chromium', { timeout: 300_000 }, () => {
     await page.locator('[data-test="tab-scenarios"]').click()
     // A bad file first: the dialog lists each problem by field and nothing is sent.
     await page.locator('[data-test="import-plan"]').click()
-    await page.locator('[data-test="import-dialog"]').waitFor({ timeout: 10_000 }).catch(async (e) => {
-      await screenshot(page, 'import-debug')
-      throw e
-    })
+    await page
+      .locator('[data-test="import-dialog"]')
+      .waitFor({ timeout: 10_000 })
+      .catch(async (e) => {
+        await screenshot(page, 'import-debug')
+        throw e
+      })
     const broken = structuredClone(file)
     broken.plan.battery.capacityAh = -1
     broken.plan.trip.timeZone = 42

@@ -30,13 +30,19 @@ export function exchangeRouter(ctx: AppContext): Router {
   r.get('/scenarios/:scenarioId/export.json', requireUser, async (req, res) => {
     const file = await exportPlanFile(db, actorOf(res), String(req.params.scenarioId))
     res.setHeader('Cache-Control', 'private, no-cache')
-    res.setHeader('Content-Disposition', attachment(fileNameFor([file.vehicle.name, file.scenario.name], 'ohmward.json')))
+    res.setHeader(
+      'Content-Disposition',
+      attachment(fileNameFor([file.vehicle.name, file.scenario.name], 'ohmward.json')),
+    )
     res.type('application/json').send(JSON.stringify(file, null, 2) + '\n')
   })
   r.get('/scenarios/:scenarioId/hourly.csv', requireUser, async (req, res) => {
     const out = await exportHourlyCsv(db, actorOf(res), String(req.params.scenarioId))
     res.setHeader('Cache-Control', 'private, no-cache')
-    res.setHeader('Content-Disposition', attachment(fileNameFor([out.vehicleName, out.scenarioName, 'hourly'], 'csv')))
+    res.setHeader(
+      'Content-Disposition',
+      attachment(fileNameFor([out.vehicleName, out.scenarioName, 'hourly'], 'csv')),
+    )
     res.type('text/csv; charset=utf-8').send(out.csv)
   })
   r.post('/vehicles/:vehicleId/scenarios/import', requireUser, async (req, res) => {

@@ -38,11 +38,20 @@ async function vehicleLabels(db: Db, vehicleId: string): Promise<PlanFile['vehic
     .from(vehicles)
     .where(eq(vehicles.id, vehicleId))
   if (!v) throw notFound('That vehicle')
-  return { name: v.name, kind: v.kind, systemVoltageV: v.systemVoltageV as PlanFile['vehicle']['systemVoltageV'] }
+  return {
+    name: v.name,
+    kind: v.kind,
+    systemVoltageV: v.systemVoltageV as PlanFile['vehicle']['systemVoltageV'],
+  }
 }
 
 /** The plan file of a scenario (read access). */
-export async function exportPlanFile(db: Db, actor: Actor, scenarioId: string, now = new Date()): Promise<PlanFile> {
+export async function exportPlanFile(
+  db: Db,
+  actor: Actor,
+  scenarioId: string,
+  now = new Date(),
+): Promise<PlanFile> {
   const { row } = await loadScenarioForUser(db, actor.id, scenarioId, 'read')
   const plan = await buildPlanForScenario(db, row.id)
   const scenario: PlanFile['scenario'] = { name: row.name }
@@ -95,8 +104,14 @@ export async function importPlanFile(
     // One import at a time per vehicle: two simultaneous imports into an empty vehicle must not both add equipment.
     await tx.execute(sql`SELECT 1 FROM ${vehicles} WHERE ${vehicles.id} = ${vehicleId} FOR UPDATE`)
     // In turn: one transaction client runs one query at a time.
-    const [battery] = await tx.select({ v: batteryBanks.vehicleId }).from(batteryBanks).where(eq(batteryBanks.vehicleId, vehicleId))
-    const [inverter] = await tx.select({ v: inverters.vehicleId }).from(inverters).where(eq(inverters.vehicleId, vehicleId))
+    const [battery] = await tx
+      .select({ v: batteryBanks.vehicleId })
+      .from(batteryBanks)
+      .where(eq(batteryBanks.vehicleId, vehicleId))
+    const [inverter] = await tx
+      .select({ v: inverters.vehicleId })
+      .from(inverters)
+      .where(eq(inverters.vehicleId, vehicleId))
     const existing = await loadApplianceRows(tx, vehicleId)
     const [sourceCount] = await tx
       .select({ n: sql<number>`count(*)::int` })
@@ -128,10 +143,17 @@ export async function importPlanFile(
         entityId: vehicleId,
         action: 'import',
         summary: `Took the equipment from the plan file of ${quoted(file.vehicle.name)}: battery bank, ${plan.appliances.length} appliances, ${plan.sources.length} charge sources${plan.inverter ? ', inverter' : ''}`,
-        after: { battery: plan.battery, inverter: plan.inverter ?? null, appliances: plan.appliances, sources: plan.sources },
+        after: {
+          battery: plan.battery,
+          inverter: plan.inverter ?? null,
+          appliances: plan.appliances,
+          sources: plan.sources,
+        },
         actorId: actor.id,
       })
-      notes.push('This vehicle had no equipment yet, so it took the battery bank, appliances, charge sources and inverter from the file.')
+      notes.push(
+        'This vehicle had no equipment yet, so it took the battery bank, appliances, charge sources and inverter from the file.',
+      )
     } else {
       const byName = new Map(existing.map((r) => [norm(r.params.name), r.id]))
       const unmatched: string[] = []
@@ -145,7 +167,9 @@ export async function importPlanFile(
         'This vehicle already has equipment, so it was kept as it is: the new scenario uses the trip from the file with this vehicle’s battery bank, appliances and charge sources.',
       )
       if (unmatched.length > 0)
-        notes.push(`No appliance here has the name of ${unmatched.map(quoted).join(', ')}: their usage in the file was not carried over.`)
+        notes.push(
+          `No appliance here has the name of ${unmatched.map(quoted).join(', ')}: their usage in the file was not carried over.`,
+        )
     }
     const [row] = await tx
       .insert(scenarios)
@@ -163,7 +187,14 @@ export async function importPlanFile(
     if (entries.length > 0) {
       await tx
         .insert(scenarioApplianceUsage)
-        .values(entries.map(([applianceId, u]) => ({ scenarioId: row!.id, applianceId, usage: u, updatedBy: actor.id })))
+        .values(
+          entries.map(([applianceId, u]) => ({
+            scenarioId: row!.id,
+            applianceId,
+            usage: u,
+            updatedBy: actor.id,
+          })),
+        )
     }
     await recordHistory(tx, {
       vehicleId,
@@ -179,5 +210,10 @@ export async function importPlanFile(
   })
   if (read.upgradedFrom !== null)
     notes.push(`The file was in format version ${read.upgradedFrom} and was upgraded to the current version.`)
-  return { scenario: await getScenario(db, actor, scenarioId), equipmentCreated, upgradedFrom: read.upgradedFrom, notes }
+  return {
+    scenario: await getScenario(db, actor, scenarioId),
+    equipmentCreated,
+    upgradedFrom: read.upgradedFrom,
+    notes,
+  }
 }

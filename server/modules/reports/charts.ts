@@ -84,18 +84,23 @@ export function socChartSvg(input: {
     const night = i < n && (input.sunElevationDeg[i] ?? 0) < 0
     if (night && start < 0) start = i
     if (!night && start >= 0) {
-      parts.push(`<rect x="${f(x(start))}" y="${fr.top}" width="${f(x(i) - x(start))}" height="${f(h)}" fill="#ECEAE4"/>`)
+      parts.push(
+        `<rect x="${f(x(start))}" y="${fr.top}" width="${f(x(i) - x(start))}" height="${f(h)}" fill="#ECEAE4"/>`,
+      )
       start = -1
     }
   }
   // grid and axis labels
   for (const p of [0, 0.25, 0.5, 0.75, 1]) {
-    parts.push(`<line x1="${fr.left}" y1="${f(y(p))}" x2="${f(fr.left + w)}" y2="${f(y(p))}" stroke="#D8D4CA" stroke-width="0.5"/>`)
+    parts.push(
+      `<line x1="${fr.left}" y1="${f(y(p))}" x2="${f(fr.left + w)}" y2="${f(y(p))}" stroke="#D8D4CA" stroke-width="0.5"/>`,
+    )
     parts.push(text(fr.left - 4, y(p) + 3, `${Math.round(p * 100)} %`, { anchor: 'end' }))
   }
   const days = Math.ceil(n / 24)
   const step = Math.max(1, Math.ceil(days / 12))
-  for (let d = 0; d < days; d += step) parts.push(text(x(d * 24 + 12), fr.top + h + 11, `day ${d + 1}`, { anchor: 'middle', size: 7 }))
+  for (let d = 0; d < days; d += step)
+    parts.push(text(x(d * 24 + 12), fr.top + h + 11, `day ${d + 1}`, { anchor: 'middle', size: 7 }))
   // floor
   parts.push(
     `<line x1="${fr.left}" y1="${f(y(input.floorFraction))}" x2="${f(fr.left + w)}" y2="${f(y(input.floorFraction))}" stroke="#B23A3A" stroke-width="1" stroke-dasharray="4,3"/>`,
@@ -103,7 +108,9 @@ export function socChartSvg(input: {
   // SOC line (start at hour 0's end)
   const pts = input.socEndFraction.map((s, i) => `${f(x(i + 1))},${f(y(s))}`).join(' ')
   parts.push(`<polyline points="${pts}" fill="none" stroke="${SERIES_COLOURS.soc}" stroke-width="1.2"/>`)
-  parts.push(`<rect x="${fr.left}" y="${fr.top}" width="${f(w)}" height="${f(h)}" fill="none" stroke="#9A968C" stroke-width="0.5"/>`)
+  parts.push(
+    `<rect x="${fr.left}" y="${fr.top}" width="${f(w)}" height="${f(h)}" fill="none" stroke="#9A968C" stroke-width="0.5"/>`,
+  )
   parts.push(
     legend(fr, [
       { label: 'State of charge', colour: SERIES_COLOURS.soc, line: true },
@@ -121,7 +128,11 @@ export interface DailyEnergyRow {
 }
 
 /** Per day: energy in by source (stacked, left bar) and energy out, loads and heater (stacked, right bar). */
-export function dailyEnergySvg(input: { days: readonly DailyEnergyRow[]; width: number; height: number }): string {
+export function dailyEnergySvg(input: {
+  days: readonly DailyEnergyRow[]
+  width: number
+  height: number
+}): string {
   const fr: Frame = { width: input.width, height: input.height, left: 40, right: 8, top: 8, bottom: 34 }
   const kinds: SourceKind[] = ['solar', 'dcdc', 'shore', 'generator']
   const n = input.days.length
@@ -136,8 +147,17 @@ export function dailyEnergySvg(input: { days: readonly DailyEnergyRow[]; width: 
   const parts: string[] = []
   for (let i = 0; i <= 4; i++) {
     const v = (nice * i) / 4
-    parts.push(`<line x1="${fr.left}" y1="${f(y(v))}" x2="${f(fr.left + w)}" y2="${f(y(v))}" stroke="#D8D4CA" stroke-width="0.5"/>`)
-    parts.push(text(fr.left - 4, y(v) + 3, v >= 1000 ? `${Number((v / 1000).toFixed(2))} kWh` : `${Math.round(v)} Wh`, { anchor: 'end', size: 7 }))
+    parts.push(
+      `<line x1="${fr.left}" y1="${f(y(v))}" x2="${f(fr.left + w)}" y2="${f(y(v))}" stroke="#D8D4CA" stroke-width="0.5"/>`,
+    )
+    parts.push(
+      text(
+        fr.left - 4,
+        y(v) + 3,
+        v >= 1000 ? `${Number((v / 1000).toFixed(2))} kWh` : `${Math.round(v)} Wh`,
+        { anchor: 'end', size: 7 },
+      ),
+    )
   }
   input.days.forEach((d, i) => {
     const cx = fr.left + slot * i + slot / 2
@@ -145,7 +165,9 @@ export function dailyEnergySvg(input: { days: readonly DailyEnergyRow[]; width: 
     for (const k of kinds) {
       const v = d.inWh[k] ?? 0
       if (v <= 0) continue
-      parts.push(`<rect x="${f(cx - bar - 0.5)}" y="${f(y(base + v))}" width="${f(bar)}" height="${f(y(base) - y(base + v))}" fill="${SERIES_COLOURS[k]}"/>`)
+      parts.push(
+        `<rect x="${f(cx - bar - 0.5)}" y="${f(y(base + v))}" width="${f(bar)}" height="${f(y(base) - y(base + v))}" fill="${SERIES_COLOURS[k]}"/>`,
+      )
       base += v
     }
     const outs: [number, string][] = [
@@ -155,18 +177,29 @@ export function dailyEnergySvg(input: { days: readonly DailyEnergyRow[]; width: 
     base = 0
     for (const [v, colour] of outs) {
       if (v <= 0) continue
-      parts.push(`<rect x="${f(cx + 0.5)}" y="${f(y(base + v))}" width="${f(bar)}" height="${f(y(base) - y(base + v))}" fill="${colour}"/>`)
+      parts.push(
+        `<rect x="${f(cx + 0.5)}" y="${f(y(base + v))}" width="${f(bar)}" height="${f(y(base) - y(base + v))}" fill="${colour}"/>`,
+      )
       base += v
     }
   })
   const step = Math.max(1, Math.ceil(n / 12))
-  for (let i = 0; i < n; i += step) parts.push(text(fr.left + slot * i + slot / 2, fr.top + h + 11, `${i + 1}`, { anchor: 'middle', size: 7 }))
-  parts.push(`<rect x="${fr.left}" y="${fr.top}" width="${f(w)}" height="${f(h)}" fill="none" stroke="#9A968C" stroke-width="0.5"/>`)
+  for (let i = 0; i < n; i += step)
+    parts.push(
+      text(fr.left + slot * i + slot / 2, fr.top + h + 11, `${i + 1}`, { anchor: 'middle', size: 7 }),
+    )
+  parts.push(
+    `<rect x="${fr.left}" y="${fr.top}" width="${f(w)}" height="${f(h)}" fill="none" stroke="#9A968C" stroke-width="0.5"/>`,
+  )
   parts.push(
     legend(fr, [
-      ...kinds.filter((k) => input.days.some((d) => (d.inWh[k] ?? 0) > 0)).map((k) => ({ label: `${SOURCE_LABELS[k]} in`, colour: SERIES_COLOURS[k] })),
+      ...kinds
+        .filter((k) => input.days.some((d) => (d.inWh[k] ?? 0) > 0))
+        .map((k) => ({ label: `${SOURCE_LABELS[k]} in`, colour: SERIES_COLOURS[k] })),
       { label: 'Loads out', colour: SERIES_COLOURS.loads },
-      ...(input.days.some((d) => d.heaterWh > 0) ? [{ label: 'Heater out', colour: SERIES_COLOURS.heater }] : []),
+      ...(input.days.some((d) => d.heaterWh > 0)
+        ? [{ label: 'Heater out', colour: SERIES_COLOURS.heater }]
+        : []),
     ]),
   )
   return `<svg xmlns="http://www.w3.org/2000/svg" width="${fr.width}" height="${fr.height}" viewBox="0 0 ${fr.width} ${fr.height}">${parts.join('')}</svg>`

@@ -61,7 +61,8 @@ const pct = (x: number | null | undefined) => (x === null || x === undefined ? '
 const energy = (wh: number | null | undefined) =>
   wh === null || wh === undefined ? '—' : Math.abs(wh) >= 1000 ? `${num(wh / 1000, 2)} kWh` : `${num(wh)} Wh`
 const tempC = (c: number | null | undefined) => `${num(c, 0)} °C`
-const moment = (hourIndex: number) => `day ${Math.floor(hourIndex / 24) + 1} at ${String(hourIndex % 24).padStart(2, '0')}:00`
+const moment = (hourIndex: number) =>
+  `day ${Math.floor(hourIndex / 24) + 1} at ${String(hourIndex % 24).padStart(2, '0')}:00`
 
 const CATEGORY_LABELS: Record<string, string> = {
   fridge: 'Fridge',
@@ -82,10 +83,19 @@ const CHEMISTRY_LABELS: Record<string, string> = {
   gel: 'Gel lead-acid',
   flooded: 'Flooded lead-acid',
 }
-const SKY_LABELS: Record<string, string> = { clear: 'clear', mixed: 'mixed', overcast: 'overcast', custom: 'custom clearness' }
+const SKY_LABELS: Record<string, string> = {
+  clear: 'clear',
+  mixed: 'mixed',
+  overcast: 'overcast',
+  custom: 'custom clearness',
+}
 
 /** The one-line answer, in the words the Outlook page uses. */
-export function verdictHeadline(r: Results): { headline: string; detail: string; tone: 'positive' | 'warning' | 'negative' } {
+export function verdictHeadline(r: Results): {
+  headline: string
+  detail: string
+  tone: 'positive' | 'warning' | 'negative'
+} {
   const s = r.summary
   const floor = r.plan.battery.socFloorFraction
   const lowest = s.lowestSocHour >= 0 ? ` on ${moment(s.lowestSocHour + 1)}` : ''
@@ -99,7 +109,8 @@ export function verdictHeadline(r: Results): { headline: string; detail: string;
     }
   }
   const m = pct(r.verdict.marginFraction)
-  if (r.verdict.status === 'tight') return { headline: `Carries the trip, but only ${m} to spare`, detail, tone: 'warning' }
+  if (r.verdict.status === 'tight')
+    return { headline: `Carries the trip, but only ${m} to spare`, detail, tone: 'warning' }
   return { headline: `Carries the trip with ${m} to spare`, detail, tone: 'positive' }
 }
 
@@ -107,7 +118,12 @@ function heading(text: string, pageBreak = false): Node {
   return { text, style: 'h2', ...(pageBreak ? { pageBreak: 'before' } : {}) }
 }
 
-function table(header: string[], rows: Cell[][], widths: (string | number)[], opts: { numeric?: number[] } = {}): Node {
+function table(
+  header: string[],
+  rows: Cell[][],
+  widths: (string | number)[],
+  opts: { numeric?: number[] } = {},
+): Node {
   const numeric = new Set(opts.numeric ?? [])
   return {
     table: {
@@ -117,7 +133,9 @@ function table(header: string[], rows: Cell[][], widths: (string | number)[], op
       body: [
         header.map((h, i) => ({ text: h, style: 'th', alignment: numeric.has(i) ? 'right' : 'left' })),
         ...rows.map((r) =>
-          r.map((c, i) => (typeof c === 'string' ? { text: c, alignment: numeric.has(i) ? 'right' : 'left' } : c)),
+          r.map((c, i) =>
+            typeof c === 'string' ? { text: c, alignment: numeric.has(i) ? 'right' : 'left' } : c,
+          ),
         ),
       ],
     },
@@ -148,7 +166,17 @@ function caution(title: string, text: string): Node {
   return {
     table: {
       widths: ['*'],
-      body: [[{ stack: [{ text: `Caution: ${title}`, bold: true, color: COLOURS.warning }, { text, fontSize: 8.5 }], margin: [6, 4, 6, 4] }]],
+      body: [
+        [
+          {
+            stack: [
+              { text: `Caution: ${title}`, bold: true, color: COLOURS.warning },
+              { text, fontSize: 8.5 },
+            ],
+            margin: [6, 4, 6, 4],
+          },
+        ],
+      ],
     },
     layout: {
       hLineWidth: () => 0.8,
@@ -174,7 +202,9 @@ const GLYPH_FALLBACKS: [RegExp, string][] = [
 /** Replace characters the shipped font cannot draw, in every string of the definition except SVG text. */
 export function withFontFallbacks<T>(node: T, key = ''): T {
   if (typeof node === 'string')
-    return (key === 'svg' ? node : GLYPH_FALLBACKS.reduce((t, [re, to]) => t.replace(re, to), node as string)) as T
+    return (
+      key === 'svg' ? node : GLYPH_FALLBACKS.reduce((t, [re, to]) => t.replace(re, to), node as string)
+    ) as T
   if (Array.isArray(node)) return node.map((n) => withFontFallbacks(n)) as T
   if (node && typeof node === 'object' && Object.getPrototypeOf(node) === Object.prototype) {
     const out: Record<string, unknown> = {}
@@ -205,7 +235,13 @@ export function buildReportDocument(input: ReportInput): Record<string, unknown>
           width: 40,
           font: 'Nunito',
         },
-        { stack: [{ text: 'Ohmward', style: 'brand' }, { text: 'Plan report', color: COLOURS.muted }], margin: [10, 2, 0, 0] },
+        {
+          stack: [
+            { text: 'Ohmward', style: 'brand' },
+            { text: 'Plan report', color: COLOURS.muted },
+          ],
+          margin: [10, 2, 0, 0],
+        },
       ],
       margin: [0, 0, 0, 24],
     },
@@ -247,8 +283,16 @@ export function buildReportDocument(input: ReportInput): Record<string, unknown>
       columns: [
         {
           stack: [
-            figure('Lowest state of charge', pct(s.lowestSocFraction), s.lowestSocHour >= 0 ? `on ${moment(s.lowestSocHour + 1)}` : ''),
-            figure('State of charge at the end', pct(s.finalSocFraction), `started at ${pct(s.startSocFraction)}`),
+            figure(
+              'Lowest state of charge',
+              pct(s.lowestSocFraction),
+              s.lowestSocHour >= 0 ? `on ${moment(s.lowestSocHour + 1)}` : '',
+            ),
+            figure(
+              'State of charge at the end',
+              pct(s.finalSocFraction),
+              `started at ${pct(s.startSocFraction)}`,
+            ),
             figure('Days ending below the floor', num(s.daysEndingBelowFloor)),
             figure('Loads not served', energy(s.unservedWh)),
           ],
@@ -257,16 +301,26 @@ export function buildReportDocument(input: ReportInput): Record<string, unknown>
           stack: [
             figure(
               'Days of autonomy',
-              r.autonomy.days === null ? `more than ${num(r.autonomy.horizonDays)} days` : `${num(r.autonomy.days, 1)} days`,
+              r.autonomy.days === null
+                ? `more than ${num(r.autonomy.horizonDays)} days`
+                : `${num(r.autonomy.days, 1)} days`,
               'from full to the floor with no charging',
             ),
-            figure('Pack needed', r.packNeeded.capacityAh === null ? 'not reachable' : `${num(r.packNeeded.capacityAh)} Ah`, `this pack: ${num(b.capacityAh)} Ah`),
+            figure(
+              'Pack needed',
+              r.packNeeded.capacityAh === null ? 'not reachable' : `${num(r.packNeeded.capacityAh)} Ah`,
+              `this pack: ${num(b.capacityAh)} Ah`,
+            ),
             figure(
               'Solar needed',
               r.solarNeeded.peakPowerWp === null ? 'not reachable' : `${num(r.solarNeeded.peakPowerWp)} Wp`,
               'to end the trip no lower than it started',
             ),
-            figure('Classic sizing method', `${num(r.classicSizing.capacityAh)} Ah`, 'load × days ÷ allowed depth of discharge'),
+            figure(
+              'Classic sizing method',
+              `${num(r.classicSizing.capacityAh)} Ah`,
+              'load × days ÷ allowed depth of discharge',
+            ),
           ],
         },
         {
@@ -274,7 +328,11 @@ export function buildReportDocument(input: ReportInput): Record<string, unknown>
             figure('Energy in', energy(totalIn), 'from all charge sources'),
             figure('Energy out', energy(s.energyOutWh), 'loads, heater and losses served'),
             figure('Heater pad', energy(s.heaterWh)),
-            figure('Charging blocked by cold', `${num(s.chargeBlockedColdH)} h`, energy(s.chargeBlockedWh) + ' lost'),
+            figure(
+              'Charging blocked by cold',
+              `${num(s.chargeBlockedColdH)} h`,
+              energy(s.chargeBlockedWh) + ' lost',
+            ),
             figure('Equivalent full cycles', num(s.equivalentFullCycles, 2)),
           ],
         },
@@ -294,7 +352,18 @@ export function buildReportDocument(input: ReportInput): Record<string, unknown>
   ]
 
   // ---- charts ---------------------------------------------------------------------------------
-  const loadCats = ['fridge', 'lighting', 'cooking', 'heating', 'electronics', 'water', 'ventilation', 'other', 'inverter', 'bms'] as const
+  const loadCats = [
+    'fridge',
+    'lighting',
+    'cooking',
+    'heating',
+    'electronics',
+    'water',
+    'ventilation',
+    'other',
+    'inverter',
+    'bms',
+  ] as const
   const charts: Node[] = [
     heading('Charts', true),
     { text: 'State of charge, hour by hour', style: 'h3' },
@@ -332,7 +401,12 @@ export function buildReportDocument(input: ReportInput): Record<string, unknown>
     table(
       ['Source', 'Energy in', 'Share'],
       (['solar', 'dcdc', 'shore', 'generator'] as const).map((k) => [
-        { columns: [{ canvas: [{ type: 'rect', x: 0, y: 2, w: 7, h: 7, color: SERIES_COLOURS[k] }], width: 12 }, { text: SOURCE_LABELS[k] }] },
+        {
+          columns: [
+            { canvas: [{ type: 'rect', x: 0, y: 2, w: 7, h: 7, color: SERIES_COLOURS[k] }], width: 12 },
+            { text: SOURCE_LABELS[k] },
+          ],
+        },
         energy(s.energyInWh[k]),
         pct(s.sourceShareFraction[k]),
       ]),
@@ -345,7 +419,20 @@ export function buildReportDocument(input: ReportInput): Record<string, unknown>
   const daily: Node[] = [
     heading('Day by day', true),
     table(
-      ['Day', 'Date', 'Solar', 'Alternator', 'Shore', 'Generator', 'Loads', 'Heater', 'Lowest SOC', 'End SOC', 'Cold h', 'Not served'],
+      [
+        'Day',
+        'Date',
+        'Solar',
+        'Alternator',
+        'Shore',
+        'Generator',
+        'Loads',
+        'Heater',
+        'Lowest SOC',
+        'End SOC',
+        'Cold h',
+        'Not served',
+      ],
       days.map((d) => [
         String(d.day + 1),
         d.date,
@@ -390,7 +477,11 @@ export function buildReportDocument(input: ReportInput): Record<string, unknown>
   const sourceRows = plan.sources.map((src) => {
     switch (src.kind) {
       case 'solar':
-        return [src.name, 'Solar array', `${num(src.peakPowerWp)} Wp, ${src.controller.toUpperCase()} ${num(src.maxCurrentA)} A, tilt ${num(src.tiltDeg ?? 0)}°`]
+        return [
+          src.name,
+          'Solar array',
+          `${num(src.peakPowerWp)} Wp, ${src.controller.toUpperCase()} ${num(src.maxCurrentA)} A, tilt ${num(src.tiltDeg ?? 0)}°`,
+        ]
       case 'dcdc':
         return [src.name, 'Alternator (DC-DC)', `${num(src.currentA)} A while driving`]
       case 'shore':
@@ -408,9 +499,14 @@ export function buildReportDocument(input: ReportInput): Record<string, unknown>
       margin: [0, 0, 0, 4],
     },
     plan.appliances.length
-      ? table(['Appliance', 'Kind', 'Supply', 'Power', 'Qty', 'Hours', 'Window', 'Duty', 'Per day'], appRows, ['*', 56, 32, 40, 22, 32, 38, 30, 50], {
-          numeric: [3, 4, 5, 7, 8],
-        })
+      ? table(
+          ['Appliance', 'Kind', 'Supply', 'Power', 'Qty', 'Hours', 'Window', 'Duty', 'Per day'],
+          appRows,
+          ['*', 56, 32, 40, 22, 32, 38, 30, 50],
+          {
+            numeric: [3, 4, 5, 7, 8],
+          },
+        )
       : { text: 'No appliances.', italics: true },
     { text: 'Charge sources', style: 'h2', margin: [0, 16, 0, 6] },
     plan.sources.length
@@ -432,7 +528,10 @@ export function buildReportDocument(input: ReportInput): Record<string, unknown>
     table(
       ['Chemistry', 'Capacity', 'Mass', 'Cycle life', 'Price', 'Per delivered kWh'],
       r.chemistryComparison.map((c) => [
-        { text: `${CHEMISTRY_LABELS[c.chemistry] ?? c.chemistry}${c.isPlanChemistry ? ' (this plan)' : ''}`, bold: c.isPlanChemistry },
+        {
+          text: `${CHEMISTRY_LABELS[c.chemistry] ?? c.chemistry}${c.isPlanChemistry ? ' (this plan)' : ''}`,
+          bold: c.isPlanChemistry,
+        },
         `${num(c.capacityAh)} Ah`,
         `${num(c.massKg)} kg`,
         `${num(c.cycleLifeCycles)} cycles`,
@@ -456,20 +555,34 @@ export function buildReportDocument(input: ReportInput): Record<string, unknown>
   const cautionsNear = (place: string) =>
     (sheet?.cautions ?? []).filter((c) => c.near === place).map((c) => caution(c.title, c.text))
   if (!sheet) {
-    build.push({ text: ['The build sheet could not be made: ', ...input.sheetMissing.join(' ')].join(''), italics: true })
+    build.push({
+      text: ['The build sheet could not be made: ', ...input.sheetMissing.join(' ')].join(''),
+      italics: true,
+    })
   } else {
     build.push(...cautionsNear('top'))
     build.push({ text: 'Protection rules', style: 'h3', margin: [0, 8, 0, 4] })
     build.push(
       table(
         ['When', 'What happens', 'Released', 'Done by'],
-        sheet.protection.rules.map((rule) => [rule.condition, ACTION_LABELS[rule.action] ?? rule.action, rule.release, rule.device]),
+        sheet.protection.rules.map((rule) => [
+          rule.condition,
+          ACTION_LABELS[rule.action] ?? rule.action,
+          rule.release,
+          rule.device,
+        ]),
         ['*', 90, '*', 80],
       ),
     )
     build.push(...cautionsNear('protection'), ...cautionsNear('heater'))
     build.push({ text: 'Charger settings', style: 'h3', margin: [0, 8, 0, 4] })
-    build.push(table(['Setting', 'Value'], sheet.protection.chargerSettings.map((c) => [c.label, c.value]), ['*', 140]))
+    build.push(
+      table(
+        ['Setting', 'Value'],
+        sheet.protection.chargerSettings.map((c) => [c.label, c.value]),
+        ['*', 140],
+      ),
+    )
     const rt = sheet.ratings
     build.push({ text: 'Ratings', style: 'h3', margin: [0, 8, 0, 4] })
     const rating = (label: string, d: { continuousA: number; requiredA: number; ratingA: number | null }) => [
@@ -503,7 +616,9 @@ export function buildReportDocument(input: ReportInput): Record<string, unknown>
           `${num(c.currentA, 1)} A`,
           `${num(c.oneWayLengthM, 1)} m`,
           c.fuseA === null ? '—' : `${num(c.fuseA)} A`,
-          c.sizing.metric ? `${num(c.sizing.metric.areaMm2, 1)} mm²${c.sizing.awg ? ` (AWG ${c.sizing.awg.label})` : ''}` : 'none in the table fits',
+          c.sizing.metric
+            ? `${num(c.sizing.metric.areaMm2, 1)} mm²${c.sizing.awg ? ` (AWG ${c.sizing.awg.label})` : ''}`
+            : 'none in the table fits',
         ]),
         ['*', 50, 70, 40, 110],
         { numeric: [1, 2, 3] },
@@ -515,7 +630,12 @@ export function buildReportDocument(input: ReportInput): Record<string, unknown>
       build.push(
         table(
           ['Part', 'Qty', 'Unit price', 'Line total'],
-          sheet.parts.lines.map((p) => [p.name, p.quantity, `${p.unitPrice} ${p.currency}`, `${p.lineTotal} ${p.currency}`]),
+          sheet.parts.lines.map((p) => [
+            p.name,
+            p.quantity,
+            `${p.unitPrice} ${p.currency}`,
+            `${p.lineTotal} ${p.currency}`,
+          ]),
           ['*', 40, 80, 80],
           { numeric: [1, 2, 3] },
         ),
@@ -536,12 +656,17 @@ export function buildReportDocument(input: ReportInput): Record<string, unknown>
     advisor.push(heading('Advisor’s comments', true))
     for (const rv of withWords) {
       advisor.push({ text: `Review by ${rv.advisorName}`, style: 'h3' })
-      if (rv.verdictLabel) advisor.push({ text: `Verdict: ${rv.verdictLabel}`, bold: true, color: COLOURS.slate })
+      if (rv.verdictLabel)
+        advisor.push({ text: `Verdict: ${rv.verdictLabel}`, bold: true, color: COLOURS.slate })
       if (rv.summary) advisor.push({ text: rv.summary, margin: [0, 2, 0, 6] })
       for (const c of rv.comments)
         advisor.push({
           stack: [
-            { text: `${c.pinLabel ? `On “${c.pinLabel}” · ` : ''}${c.author} · ${c.at}`, fontSize: 8, color: COLOURS.muted },
+            {
+              text: `${c.pinLabel ? `On “${c.pinLabel}” · ` : ''}${c.author} · ${c.at}`,
+              fontSize: 8,
+              color: COLOURS.muted,
+            },
             { text: c.body },
           ],
           margin: [8, 3, 0, 5],
@@ -551,22 +676,49 @@ export function buildReportDocument(input: ReportInput): Record<string, unknown>
 
   const generated = input.generatedAt.toISOString().slice(0, 16).replace('T', ' ') + ' UTC'
   return {
-    info: { title: `${vehicle.name} · ${scenario.name} · Ohmward plan report`, author: 'Ohmward', subject: 'Plan report' },
+    info: {
+      title: `${vehicle.name} · ${scenario.name} · Ohmward plan report`,
+      author: 'Ohmward',
+      subject: 'Plan report',
+    },
     pageSize: 'A4',
     pageMargins: [40, 46, 40, 46],
     defaultStyle: { font: 'Nunito', fontSize: 9.5, lineHeight: 1.15, color: '#1E2626' },
     header: (page: number) =>
       page === 1
         ? null
-        : { text: `${vehicle.name} · ${scenario.name}`, margin: [40, 20, 40, 0], fontSize: 8, color: COLOURS.muted },
+        : {
+            text: `${vehicle.name} · ${scenario.name}`,
+            margin: [40, 20, 40, 0],
+            fontSize: 8,
+            color: COLOURS.muted,
+          },
     footer: (page: number, pages: number) => ({
       columns: [
-        { text: `Ohmward plan report · made ${generated} · a plan, not a guarantee; follow local codes`, fontSize: 7.5, color: COLOURS.muted },
-        { text: `page ${page} of ${pages}`, alignment: 'right', fontSize: 7.5, color: COLOURS.muted, width: 70 },
+        {
+          text: `Ohmward plan report · made ${generated} · a plan, not a guarantee; follow local codes`,
+          fontSize: 7.5,
+          color: COLOURS.muted,
+        },
+        {
+          text: `page ${page} of ${pages}`,
+          alignment: 'right',
+          fontSize: 7.5,
+          color: COLOURS.muted,
+          width: 70,
+        },
       ],
       margin: [40, 14, 40, 0],
     }),
-    content: withFontFallbacks([...cover, ...charts, ...daily, ...equipment, ...sizing, ...build, ...advisor]),
+    content: withFontFallbacks([
+      ...cover,
+      ...charts,
+      ...daily,
+      ...equipment,
+      ...sizing,
+      ...build,
+      ...advisor,
+    ]),
     styles: {
       brand: { fontSize: 16, bold: true, color: COLOURS.spruce },
       h1: { fontSize: 24, bold: true, color: COLOURS.spruce },

@@ -55,7 +55,15 @@ async function advisorReviews(db: Db, scenarioId: string): Promise<ReportReview[
   const comments = await db
     .select()
     .from(reviewComments)
-    .where(and(inArray(reviewComments.reviewId, rows.map((r) => r.id)), eq(reviewComments.kind, 'comment')))
+    .where(
+      and(
+        inArray(
+          reviewComments.reviewId,
+          rows.map((r) => r.id),
+        ),
+        eq(reviewComments.kind, 'comment'),
+      ),
+    )
     .orderBy(asc(reviewComments.createdAt))
   return rows.map((r) => ({
     advisorName: r.advisorName,
@@ -74,7 +82,12 @@ async function advisorReviews(db: Db, scenarioId: string): Promise<ReportReview[
 }
 
 /** Everything the report shows, for a scenario the user can read. */
-export async function reportInput(db: Db, actor: Actor, scenarioId: string, now = new Date()): Promise<ReportInput> {
+export async function reportInput(
+  db: Db,
+  actor: Actor,
+  scenarioId: string,
+  now = new Date(),
+): Promise<ReportInput> {
   const { row } = await loadScenarioForUser(db, actor.id, scenarioId, 'read')
   const [vehicle] = await db
     .select({ name: vehicles.name, kind: vehicles.kind, systemVoltageV: vehicles.systemVoltageV })

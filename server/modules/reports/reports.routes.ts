@@ -19,7 +19,10 @@ export function reportsRouter(ctx: AppContext): Router {
     const pdf = await renderReportPdf(input)
     const name = fileNameFor([input.vehicle.name, input.scenario.name, 'report'], 'pdf')
     res.setHeader('Cache-Control', 'private, no-cache')
-    res.setHeader('Content-Disposition', req.query.inline === '1' ? attachment(name).replace(/^attachment/, 'inline') : attachment(name))
+    res.setHeader(
+      'Content-Disposition',
+      req.query.inline === '1' ? attachment(name).replace(/^attachment/, 'inline') : attachment(name),
+    )
     res.type('application/pdf').send(pdf)
   })
   return r
