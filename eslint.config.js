@@ -6,7 +6,7 @@ import prettier from 'eslint-config-prettier'
 import globals from 'globals'
 
 export default tseslint.config(
-  { ignores: ['dist/**', 'node_modules/**', 'artifacts/**', 'data/pg/**', 'data/run/**', 'drizzle/**', 'coverage/**'] },
+  { ignores: ['dist/**', 'dist-server/**', 'node_modules/**', 'artifacts/**', 'data/pg/**', 'data/run/**', 'drizzle/**', 'coverage/**'] },
   js.configs.recommended,
   ...tseslint.configs.recommended,
   ...pluginVue.configs['flat/recommended'],

@@ -11,6 +11,7 @@ import { startFakes, fakeSpecs } from './lib/fakes'
 import { ROOT, RUN_DIR, PG_DIR, PG_PORT, DB_NAME } from './lib/paths'
 import { createDatabase } from '../server/db/client'
 import { seedDemoIfEmpty } from '../server/seed/index'
+import { buildServer } from './lib/build-server'
 
 const PORT = Number(process.env.PORT ?? 3000)
 const HOST = process.env.HOST ?? '127.0.0.1'
@@ -34,10 +35,12 @@ log('migrations applied')
 log('building the client…')
 const build = spawnSync('npx', ['vite', 'build', '--logLevel', 'warn'], { cwd: ROOT, stdio: 'inherit' })
 if (build.status !== 0) process.exit(build.status ?? 1)
+log('building the server…')
+const serverEntry = await buildServer()
 
 mkdirSync(RUN_DIR, { recursive: true })
 const children: ChildProcess[] = await startFakes(fakeSpecs(FAKE_PORTS))
-const server = spawn(process.execPath, ['--import', 'tsx', resolve(ROOT, 'server/index.ts')], {
+const server = spawn(process.execPath, ['--enable-source-maps', serverEntry], {
   cwd: ROOT,
   stdio: 'inherit',
   env: {

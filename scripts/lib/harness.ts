@@ -11,6 +11,8 @@ import { runMigrations } from './migrate'
 import { ROOT } from './paths'
 import { createDatabase } from '../../server/db/client'
 import { seedDemo } from '../../server/seed/index'
+import { buildServer } from './build-server'
+import { randomUUID } from 'node:crypto'
 
 export interface Stack {
   cluster: Cluster
@@ -51,6 +53,7 @@ export interface ServerProcess {
   /** Peak resident memory so far (VmHWM from /proc), in MB. */
   peakRssMB(): number
   stop(): Promise<void>
+  cleanup(): void
 }
 
 /** The real server (server/index.ts) as a child process on a free port. */
@@ -60,7 +63,9 @@ export async function startServerProcess(
 ): Promise<ServerProcess> {
   const port = await freePort()
   const url = `http://127.0.0.1:${port}`
-  const child = spawn(process.execPath, ['--import', 'tsx', resolve(ROOT, 'server/index.ts')], {
+  // The production bundle, built per process so parallel test files never share a half-written file.
+  const entry = await buildServer(resolve(ROOT, `dist-server/harness-${randomUUID()}.js`))
+  const child = spawn(process.execPath, [entry], {
     cwd: ROOT,
     stdio: ['ignore', 'pipe', 'pipe'],
     env: {
@@ -87,6 +92,10 @@ export async function startServerProcess(
     })
     child.once('exit', (code) => fail(new Error(`server exited with ${code}:\n${stderr}`)))
   })
+  const cleanup = () => {
+    rmSync(entry, { force: true })
+    rmSync(entry + '.map', { force: true })
+  }
   return {
     url,
     child,
@@ -100,10 +109,12 @@ export async function startServerProcess(
       }
     },
     async stop() {
+      cleanup()
       if (child.exitCode !== null || child.signalCode !== null) return
       const exited = new Promise((ok) => child.once('exit', ok))
       child.kill('SIGTERM')
       await exited
     },
+    cleanup,
   }
 }

@@ -6,17 +6,17 @@
 import { copyFile } from 'node:fs/promises'
 import { randomUUID } from 'node:crypto'
 import { readFileSync, statSync } from 'node:fs'
-import { fileURLToPath } from 'node:url'
 import { and, eq } from 'drizzle-orm'
 import type pg from 'pg'
 import type { Db } from '../db/client'
+import { projectPath } from '../paths'
 import { users, vehicleMemberships } from '../db/schema/index'
 import { detectShape } from '../../shared/logs/detect'
 import { completeMapping, proposeMapping } from '../../shared/logs/mapping'
 import { importUpload } from '../modules/logs/logs.service'
 import { ensurePendingDir, pendingFile, savePending } from '../modules/logs/pending'
 
-const SAMPLE = fileURLToPath(new URL('../../data/sample-logs/lingon-lofoten-2027-02.csv', import.meta.url))
+const SAMPLE = projectPath('data', 'sample-logs', 'lingon-lofoten-2027-02.csv')
 
 export async function seedLogs(db: Db): Promise<void> {
   const [ines] = await db

@@ -8,8 +8,9 @@ import {
 } from '../../../shared/schemas/vehicles'
 import type { AppContext } from '../../context'
 import { requireUser } from '../../middleware/require-user'
+import { projectPath } from '../../paths'
 
-const LIBRARY_URL = new URL('../../../data/appliance-library.json', import.meta.url)
+const LIBRARY_URL = projectPath('data', 'appliance-library.json')
 let cached: ApplianceLibrary | null = null
 
 /** Throws (at the first request, and in the tests) if the file breaks the schema. */
