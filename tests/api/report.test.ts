@@ -10,7 +10,12 @@ import { join } from 'node:path'
 import { afterAll, beforeAll, describe, expect, it } from 'vitest'
 import request from 'supertest'
 import { createApp } from '../../server/app'
-import { reviewComments, reviews } from '../../server/db/schema/index'
+import { eq } from 'drizzle-orm'
+import { reviewComments, reviews, scenarios, vehicleMemberships } from '../../server/db/schema/index'
+import { seedUsers } from '../../server/seed/users'
+import { seedVehicles } from '../../server/seed/vehicles'
+import { seedBuildSheet } from '../../server/seed/buildsheet'
+import { seedReviews } from '../../server/seed/reviews'
 import { testContext, uniq } from '../support/context'
 import { createUser, type TestUser } from '../support/factories'
 import { examplePlan, storePlan, type ExampleName, type Send } from './results.fixture'
@@ -208,5 +213,64 @@ describe('GET /api/scenarios/:scenarioId/report.pdf', () => {
     expect(text).toContain('Compressor fridge 50 L')
     expect(text).not.toContain('Client question that stays out of the report.')
     expect(text).not.toContain('Payment received.')
+  })
+  it('makes a PDF for every scenario of the seeded demo van, with its build sheet, and advisor comments only when there are any', async () => {
+    // The demo seed is idempotent (a second run adds nothing), so it can share the test database.
+    await seedUsers(ctx.db)
+    await seedVehicles(ctx.db)
+    await seedBuildSheet(ctx.db)
+    await seedReviews(ctx.db)
+    const session = await ctx.lucia.createSession('demo-ines', {})
+    const ines = {
+      id: 'demo-ines',
+      cookie: ctx.lucia.createSessionCookie(session.id).serialize().split(';')[0]!,
+    } as TestUser
+    const [membership] = await ctx.db
+      .select()
+      .from(vehicleMemberships)
+      .where(eq(vehicleMemberships.userId, 'demo-ines'))
+    const trips = await ctx.db.select().from(scenarios).where(eq(scenarios.vehicleId, membership!.vehicleId))
+    expect(trips.length).toBeGreaterThanOrEqual(2)
+    for (const trip of trips) {
+      const res = await getPdf(ines, trip.id)
+      expect(res.status).toBe(200)
+      const file = join(work, `demo-${trip.id}.pdf`)
+      writeFileSync(file, res.body as Buffer)
+      const text = pdfText(file)
+      expect(text).toContain(trip.name)
+      expect(text).toMatch(/Carries the trip|Runs short on day|Cannot serve every load/)
+      expect(text).toContain('Build sheet')
+      const advisorComments = await ctx.db
+        .select({
+          id: reviewComments.id,
+          body: reviewComments.body,
+          authorId: reviewComments.authorId,
+          advisorId: reviews.advisorId,
+        })
+        .from(reviewComments)
+        .innerJoin(reviews, eq(reviews.id, reviewComments.reviewId))
+        .where(eq(reviews.scenarioId, trip.id))
+      const byAdvisor = advisorComments.filter((c) => c.authorId === c.advisorId)
+      if (byAdvisor.length > 0) {
+        expect(text).toContain('Advisor’s comments')
+        // The first words of each advisor comment (long ones wrap across lines in the PDF text).
+        for (const c of byAdvisor)
+          expect(text.replace(/\s+/g, ' ')).toContain(c.body.replace(/\s+/g, ' ').slice(0, 30))
+      } else {
+        // The demo has an advisor profile but no review yet: no advisor section.
+        expect(text).not.toContain('Advisor’s comments')
+      }
+      execFileSync('pdftoppm', [
+        '-png',
+        '-r',
+        '60',
+        '-f',
+        '1',
+        '-l',
+        '1',
+        file,
+        join(artifacts, `demo-${trip.name.replace(/[^\w]+/g, '-')}`),
+      ])
+    }
   })
 })
