@@ -32,7 +32,7 @@ if (process.argv.includes('--build') || !existsSync(join(dist, 'index.html'))) {
 const stack = await startDatabase({ seed: true })
 const server = await startServerProcess(stack.dbUrl, { OHMWARD_CLIENT_DIR: dist })
 const browser = await launchBrowser()
-let out: Record<string, unknown> = {}
+let out: Record<string, unknown> | undefined
 try {
   const signIn = await fetch(server.url + '/api/auth/sign-in', {
     method: 'POST',
@@ -51,9 +51,15 @@ try {
     return { status: res.status, body: text ? JSON.parse(text) : null }
   }
   const plan = examplePlan('summer-month-andalusia')
-  const { scenarioId } = await storePlan(send, plan, { vehicle: 'Bench van', scenario: 'Bench: summer month' })
+  const { scenarioId } = await storePlan(send, plan, {
+    vehicle: 'Bench van',
+    scenario: 'Bench: summer month',
+  })
 
-  const context = await browser.newContext({ viewport: { width: 1280, height: 860 }, serviceWorkers: 'block' })
+  const context = await browser.newContext({
+    viewport: { width: 1280, height: 860 },
+    serviceWorkers: 'block',
+  })
   const [name, value] = cookie.split('=') as [string, string]
   await context.addCookies([{ name, value, url: server.url }])
   const page = await context.newPage()
@@ -94,8 +100,14 @@ try {
   }
   if (cdp) {
     // --profile: where the page's thread spent its time during the moves (self time by function).
-    type Node = { id: number; callFrame: { functionName: string; url: string; lineNumber: number }; hitCount?: number }
-    const { profile: p } = (await cdp.send('Profiler.stop')) as unknown as { profile: { nodes: Node[]; samples: number[]; timeDeltas: number[] } }
+    type Node = {
+      id: number
+      callFrame: { functionName: string; url: string; lineNumber: number }
+      hitCount?: number
+    }
+    const { profile: p } = (await cdp.send('Profiler.stop')) as unknown as {
+      profile: { nodes: Node[]; samples: number[]; timeDeltas: number[] }
+    }
     const byId = new Map(p.nodes.map((n) => [n.id, n]))
     const self = new Map<string, number>()
     p.samples.forEach((id, i) => {
@@ -103,10 +115,13 @@ try {
       const key = `${n.callFrame.functionName || '(anonymous)'} ${n.callFrame.url.split('/').pop()}:${n.callFrame.lineNumber}`
       self.set(key, (self.get(key) ?? 0) + (p.timeDeltas[i] ?? 0) / 1000)
     })
-    for (const [k, ms] of [...self.entries()].sort((a, b) => b[1] - a[1]).slice(0, 25)) console.log(`${ms.toFixed(0).padStart(7)} ms  ${k}`)
+    for (const [k, ms] of [...self.entries()].sort((a, b) => b[1] - a[1]).slice(0, 25))
+      console.log(`${ms.toFixed(0).padStart(7)} ms  ${k}`)
   }
   await page.waitForTimeout(300)
-  const moves = await page.evaluate(() => (window as unknown as { __owMoves: { busy: number; frame: number }[] }).__owMoves)
+  const moves = await page.evaluate(
+    () => (window as unknown as { __owMoves: { busy: number; frame: number }[] }).__owMoves,
+  )
   const engineMs = await page.evaluate(() =>
     performance
       .getEntriesByName('ow-simulate')
@@ -119,7 +134,9 @@ try {
   const busy = sorted('busy')
   const frame = sorted('frame')
   const r1 = (v: number) => Math.round(v * 10) / 10
-  console.log(`${moves.length} moves, capacity ${plan.battery.capacityAh ?? plan.battery.cellCapacityAh} → ${capacity} Ah on a ${plan.trip.days}-day trip`)
+  console.log(
+    `${moves.length} moves, capacity ${plan.battery.capacityAh ?? plan.battery.cellCapacityAh} → ${capacity} Ah on a ${plan.trip.days}-day trip`,
+  )
   out = {
     bench: 'whatif',
     tripDays: plan.trip.days,
@@ -127,7 +144,12 @@ try {
     recomputeAndChartsMedianMs: r1(q(busy, 0.5)),
     recomputeAndChartsP95Ms: r1(q(busy, 0.95)),
     recomputeAndChartsMaxMs: r1(busy[busy.length - 1]!),
-    engineRunMedianMs: r1(q([...engineMs].sort((a, b) => a - b), 0.5)),
+    engineRunMedianMs: r1(
+      q(
+        [...engineMs].sort((a, b) => a - b),
+        0.5,
+      ),
+    ),
     toNextFrameMedianMs: r1(q(frame, 0.5)),
     frameBudgetMs: r1(FRAME_MS),
     withinOneFrameP95: q(busy, 0.95) <= FRAME_MS,
@@ -138,4 +160,4 @@ try {
   await server.stop()
   await stack.stop()
 }
-console.log(JSON.stringify(out))
+console.log(JSON.stringify(out ?? { error: 'no figures' }))
