@@ -19,6 +19,7 @@ import {
 } from '../../../shared/schemas/crew'
 import { OPEN_REVIEW_STATES, type ReviewState } from '../../../shared/schemas/reviews'
 import type { Tx } from './access'
+import { isId } from '../vehicles/access'
 import { recordCrewHistory } from './history'
 import { invitationMail, joinedMail, ownershipMail, removedMail, roleChangedMail } from './mails'
 
@@ -204,6 +205,8 @@ export async function revokeInvitation(
   ownerId: string,
   invitationId: string,
 ): Promise<void> {
+  // Not an id at all: the same 404 as an unknown one (PostgreSQL would refuse the uuid cast with a 500).
+  if (!isId(invitationId)) throw notFound('That pending invitation')
   await ctx.db.transaction(async (tx) => {
     const [row] = await tx
       .update(vehicleInvitations)
