@@ -49,7 +49,10 @@ export interface ScenarioResults {
   results: AnalysisJson
 }
 
-export async function fetchScenarioResults(scenarioId: string, signal?: AbortSignal): Promise<ScenarioResults> {
+export async function fetchScenarioResults(
+  scenarioId: string,
+  signal?: AbortSignal,
+): Promise<ScenarioResults> {
   const body = await http.get(`/scenarios/${encodeURIComponent(scenarioId)}/results`, signal)
   ScenarioResultsSchema.parse(body)
   return body as ScenarioResults
@@ -84,7 +87,10 @@ export async function saveWhatIf(input: SaveWhatIfInput): Promise<SavedWhatIf> {
       await http.post(`/scenarios/${encodeURIComponent(scenario.id)}/duplicate`, { name }),
     )
     const saved = ScenarioSchema.parse(
-      await http.patch(`/scenarios/${encodeURIComponent(copy.id)}`, { version: copy.version, trip: plan.trip }),
+      await http.patch(`/scenarios/${encodeURIComponent(copy.id)}`, {
+        version: copy.version,
+        trip: plan.trip,
+      }),
     )
     return { scenarioId: saved.id, vehicleId: saved.vehicleId, vehicleCopied: false }
   }

@@ -3,7 +3,13 @@ import { simulate, resultsToJson, type Jsonified, type Plan, type SimulationResu
 import { ApiError } from '../api/http'
 import { fetchScenario, fetchScenarioPlan } from '../api/results'
 import type { Scenario } from '@shared/schemas/vehicles'
-import { applyWhatIf, changesEquipment, isChanged, whatIfBase, type WhatIf } from '../components/outlook/whatIf'
+import {
+  applyWhatIf,
+  changesEquipment,
+  isChanged,
+  whatIfBase,
+  type WhatIf,
+} from '../components/outlook/whatIf'
 import { useEngineWorker, type AnalysisJson } from './useEngineWorker'
 
 export type SimulationJson = Jsonified<SimulationResult>

@@ -23,7 +23,9 @@ self.onmessage = (e: MessageEvent<EngineJob>) => {
     const result =
       kind === 'simulate'
         ? simulate(plan)
-        : analysePlan(plan, { onProgress: (fraction, stage) => post({ id, type: 'progress', fraction, stage }) })
+        : analysePlan(plan, {
+            onProgress: (fraction, stage) => post({ id, type: 'progress', fraction, stage }),
+          })
     post({ id, type: 'done', result: resultsToJson(result), ms: performance.now() - started })
   } catch (err) {
     post({ id, type: 'error', message: err instanceof Error ? err.message : String(err) })

@@ -14,7 +14,11 @@ export function examplePlan(name: ExampleName): Plan {
 }
 
 /** Minimal HTTP client: `send(method, path, body)` → `{ status, body }` with the user's cookie. */
-export type Send = (method: 'GET' | 'POST' | 'PUT' | 'PATCH', path: string, body?: unknown) => Promise<{ status: number; body: any }>
+export type Send = (
+  method: 'GET' | 'POST' | 'PUT' | 'PATCH',
+  path: string,
+  body?: unknown,
+) => Promise<{ status: number; body: any }>
 
 /** A vehicle holding the plan's equipment and one scenario with its trip and usage. */
 export async function storePlan(
@@ -22,15 +26,23 @@ export async function storePlan(
   plan: Plan,
   names: { vehicle: string; scenario: string },
 ): Promise<{ vehicleId: string; scenarioId: string }> {
-  const ok = (r: { status: number; body: any }, what: string) => {
+  const ok = (r: Awaited<ReturnType<Send>>, what: string) => {
     if (r.status >= 300) throw new Error(`${what}: ${r.status} ${JSON.stringify(r.body)}`)
     return r.body
   }
-  const voltage = plan.battery.nominalVoltageV ?? plan.battery.cellsSeries * (plan.battery.chemistry === 'lfp' ? 3.2 : 2)
+  const voltage =
+    plan.battery.nominalVoltageV ?? plan.battery.cellsSeries * (plan.battery.chemistry === 'lfp' ? 3.2 : 2)
   const systemVoltageV = voltage > 36 ? 48 : voltage > 18 ? 24 : 12
-  const v = ok(await send('POST', '/api/vehicles', { name: names.vehicle, kind: 'van', systemVoltageV }), 'vehicle')
+  const v = ok(
+    await send('POST', '/api/vehicles', { name: names.vehicle, kind: 'van', systemVoltageV }),
+    'vehicle',
+  )
   ok(await send('PUT', `/api/vehicles/${v.id}/battery`, { version: 0, battery: plan.battery }), 'battery')
-  if (plan.inverter) ok(await send('PUT', `/api/vehicles/${v.id}/inverter`, { version: 0, inverter: plan.inverter }), 'inverter')
+  if (plan.inverter)
+    ok(
+      await send('PUT', `/api/vehicles/${v.id}/inverter`, { version: 0, inverter: plan.inverter }),
+      'inverter',
+    )
   const usage: Record<string, unknown> = {}
   for (const a of plan.appliances) {
     const { id: _id, usage: u, ...fields } = a

@@ -14,7 +14,9 @@ afterAll(() => ctx.pool.end())
 const sender =
   (user: TestUser): Send =>
   async (method, path, body) => {
-    const req = request(app)[method.toLowerCase() as 'get' | 'post' | 'put' | 'patch'](path).set('Cookie', user.cookie)
+    const req = request(app)
+      [method.toLowerCase() as 'get' | 'post' | 'put' | 'patch'](path)
+      .set('Cookie', user.cookie)
     const res = body === undefined ? await req : await req.send(body as object)
     return { status: res.status, body: res.body }
   }
@@ -40,7 +42,9 @@ describe('GET /api/scenarios/:scenarioId/results', () => {
   })
 
   it('answers 404 to someone who is not on the vehicle, like a scenario that does not exist', async () => {
-    const res = await request(app).get(`/api/scenarios/${winter.scenarioId}/results`).set('Cookie', stranger.cookie)
+    const res = await request(app)
+      .get(`/api/scenarios/${winter.scenarioId}/results`)
+      .set('Cookie', stranger.cookie)
     expect(res.status).toBe(404)
     const missing = await request(app)
       .get('/api/scenarios/00000000-0000-4000-8000-000000000000/results')
@@ -50,9 +54,13 @@ describe('GET /api/scenarios/:scenarioId/results', () => {
 
   it('gives exactly what the engine gives for the same plan JSON in this process (browser-vs-server identity)', async () => {
     clearResultsCache()
-    const planRes = await request(app).get(`/api/scenarios/${winter.scenarioId}/plan`).set('Cookie', owner.cookie)
+    const planRes = await request(app)
+      .get(`/api/scenarios/${winter.scenarioId}/plan`)
+      .set('Cookie', owner.cookie)
     expect(planRes.status).toBe(200)
-    const res = await request(app).get(`/api/scenarios/${winter.scenarioId}/results`).set('Cookie', owner.cookie)
+    const res = await request(app)
+      .get(`/api/scenarios/${winter.scenarioId}/results`)
+      .set('Cookie', owner.cookie)
     expect(res.status).toBe(200)
     expect(res.body.scenarioId).toBe(winter.scenarioId)
     expect(res.body.cached).toBe(false)
@@ -71,21 +79,31 @@ describe('GET /api/scenarios/:scenarioId/results', () => {
     expect(['carries', 'tight', 'short']).toContain(res.body.results.verdict.status)
     expect(res.body.results.packNeeded.capacityAh).toBeGreaterThan(0)
 
-    const again = await request(app).get(`/api/scenarios/${winter.scenarioId}/results`).set('Cookie', owner.cookie)
+    const again = await request(app)
+      .get(`/api/scenarios/${winter.scenarioId}/results`)
+      .set('Cookie', owner.cookie)
     expect(again.body.cached).toBe(true)
     expect(again.body.results).toEqual(res.body.results)
   })
 
   it('follows an edit of the stored scenario (the memo is keyed by the plan)', async () => {
-    const before = await request(app).get(`/api/scenarios/${winter.scenarioId}/results`).set('Cookie', owner.cookie)
+    const before = await request(app)
+      .get(`/api/scenarios/${winter.scenarioId}/results`)
+      .set('Cookie', owner.cookie)
     const sc = await request(app).get(`/api/scenarios/${winter.scenarioId}`).set('Cookie', owner.cookie)
-    const trip = { ...sc.body.trip, nightLowC: sc.body.trip.nightLowC - 10, dayHighC: sc.body.trip.dayHighC - 10 }
+    const trip = {
+      ...sc.body.trip,
+      nightLowC: sc.body.trip.nightLowC - 10,
+      dayHighC: sc.body.trip.dayHighC - 10,
+    }
     const patched = await request(app)
       .patch(`/api/scenarios/${winter.scenarioId}`)
       .set('Cookie', owner.cookie)
       .send({ version: sc.body.version, trip })
     expect(patched.status).toBe(200)
-    const after = await request(app).get(`/api/scenarios/${winter.scenarioId}/results`).set('Cookie', owner.cookie)
+    const after = await request(app)
+      .get(`/api/scenarios/${winter.scenarioId}/results`)
+      .set('Cookie', owner.cookie)
     expect(after.body.cached).toBe(false)
     expect(after.body.results.plan.trip.nightLowC).toBe(trip.nightLowC)
     expect(after.body.results.summary.heaterWh).toBeGreaterThan(before.body.results.summary.heaterWh)
@@ -95,7 +113,10 @@ describe('GET /api/scenarios/:scenarioId/results', () => {
     const s = sender(owner)
     const v = await s('POST', '/api/vehicles', { name: `Bare ${uniq()}`, kind: 'van', systemVoltageV: 12 })
     const plan = examplePlan('summer-month-andalusia')
-    const sc = await s('POST', `/api/vehicles/${v.body.id}/scenarios`, { name: 'No pack yet', trip: plan.trip })
+    const sc = await s('POST', `/api/vehicles/${v.body.id}/scenarios`, {
+      name: 'No pack yet',
+      trip: plan.trip,
+    })
     expect(sc.status).toBe(201)
     const res = await request(app).get(`/api/scenarios/${sc.body.id}/results`).set('Cookie', owner.cookie)
     expect(res.status).toBe(422)

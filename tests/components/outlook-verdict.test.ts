@@ -3,8 +3,8 @@ import { describe, expect, it, beforeEach } from 'vitest'
 import { mount } from '@vue/test-utils'
 import { Quasar } from 'quasar'
 import { createPinia, setActivePinia, type Pinia } from 'pinia'
-import { readFileSync } from 'node:fs'
-import { join } from 'node:path'
+import winterRaw from '../../data/examples/winter-week-lofoten.json?raw'
+import summerRaw from '../../data/examples/summer-month-andalusia.json?raw'
 import OutlookVerdict from '../../src/components/outlook/OutlookVerdict.vue'
 import OutlookFigures from '../../src/components/outlook/OutlookFigures.vue'
 import { verdictView, type VerdictInput } from '../../src/components/outlook/verdict'
@@ -12,16 +12,27 @@ import { applyWhatIf, whatIfBase } from '../../src/components/outlook/whatIf'
 import { compareRows } from '../../src/components/outlook/compare'
 import { analysePlan, parsePlan, resultsToJson, simulate, type Plan } from '../../shared/engine/index'
 
+const EXAMPLES: Record<string, string> = {
+  'winter-week-lofoten': winterRaw,
+  'summer-month-andalusia': summerRaw,
+}
+
 function example(name: string): Plan {
-  // happy-dom replaces import.meta.url; the tests run from the project root.
-  const path = join(process.cwd(), 'data', 'examples', `${name}.json`)
-  const r = parsePlan(JSON.parse(readFileSync(path, 'utf8')))
+  const r = parsePlan(JSON.parse(EXAMPLES[name]!))
   if (!r.ok) throw new Error(JSON.stringify(r.fields))
   return r.plan
 }
 
 /** A hand-made result: 200 Ah at 12.8 V, floor 10 %. */
-function made(over: Partial<{ status: 'carries' | 'tight' | 'short'; lowest: number; lowestHour: number; first: number; unserved: number }>): VerdictInput {
+function made(
+  over: Partial<{
+    status: 'carries' | 'tight' | 'short'
+    lowest: number
+    lowestHour: number
+    first: number
+    unserved: number
+  }>,
+): VerdictInput {
   const lowest = over.lowest ?? 0.33
   const status = over.status ?? 'carries'
   return {
@@ -56,13 +67,17 @@ describe('the verdict', () => {
   })
 
   it('says when a carried trip is tight, and when and how a short one runs out', () => {
-    expect(verdictView(made({ status: 'tight', lowest: 0.16 })).headline).toBe('Carries the trip, but only 6 % to spare')
+    expect(verdictView(made({ status: 'tight', lowest: 0.16 })).headline).toBe(
+      'Carries the trip, but only 6 % to spare',
+    )
     const short = verdictView(made({ status: 'short', lowest: 0.1, first: 77, unserved: 1234 }))
     expect(short.headline).toBe('Runs short on day 4 at 05:00')
     expect(short.margin).toBe('1.2 kWh of loads would go unserved over the trip.')
     expect(short.tone).toBe('negative')
     // Shed only through the inverter rating: there is no first hour at the floor.
-    expect(verdictView(made({ status: 'short', first: -1, unserved: 50 })).headline).toBe('Cannot serve every load on this trip')
+    expect(verdictView(made({ status: 'short', first: -1, unserved: 50 })).headline).toBe(
+      'Cannot serve every load on this trip',
+    )
   })
 
   it('renders with an icon and words, not colour alone, and marks an unsaved change', () => {
@@ -106,7 +121,9 @@ describe('the key figures', () => {
       global: { plugins: [[Quasar, {}], pinia] },
     })
     expect(w.get('[data-test="figure-autonomy"]').text()).toMatch(/\d(\.\d)? days?/)
-    expect(w.get('[data-test="figure-pack-needed"]').text()).toMatch(new RegExp(`${analysis.packNeeded.capacityAh} Ah`))
+    expect(w.get('[data-test="figure-pack-needed"]').text()).toMatch(
+      new RegExp(`${analysis.packNeeded.capacityAh} Ah`),
+    )
     expect(w.get('[data-test="figure-pack-needed"]').text()).toContain('Yours: 200 Ah at 12.8 V')
     expect(w.get('[data-test="figure-solar-needed"]').text()).toContain('400 Wp')
     expect(w.get('[data-test="figure-classic"]').text()).toMatch(/\d+ Ah\s*classic sizing/)

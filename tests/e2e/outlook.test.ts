@@ -28,7 +28,9 @@ function compareResults(a: unknown, b: unknown) {
       const kx = Object.keys(x).sort()
       const ky = Object.keys(y).sort()
       if (kx.join() !== ky.join()) out.mismatches.push(`${path}: keys ${kx.join()} vs ${ky.join()}`)
-      else for (const k of kx) walk((x as Record<string, unknown>)[k], (y as Record<string, unknown>)[k], `${path}.${k}`)
+      else
+        for (const k of kx)
+          walk((x as Record<string, unknown>)[k], (y as Record<string, unknown>)[k], `${path}.${k}`)
       return
     }
     if (x !== y) out.mismatches.push(`${path}: ${String(x)} vs ${String(y)}`)
@@ -48,7 +50,10 @@ function wideElements(page: Page): Promise<string[]> {
         return true
       })
       .slice(0, 8)
-      .map((e) => `${e.tagName.toLowerCase()}.${[...e.classList].join('.')} right=${Math.round(e.getBoundingClientRect().right)}`),
+      .map(
+        (e) =>
+          `${e.tagName.toLowerCase()}.${[...e.classList].join('.')} right=${Math.round(e.getBoundingClientRect().right)}`,
+      ),
   )
 }
 
@@ -56,7 +61,8 @@ function wideElements(page: Page): Promise<string[]> {
 function roundDeep(v: unknown): unknown {
   if (typeof v === 'number') return Number(v.toPrecision(9))
   if (Array.isArray(v)) return v.map(roundDeep)
-  if (v && typeof v === 'object') return Object.fromEntries(Object.entries(v).map(([k, x]) => [k, roundDeep(x)]))
+  if (v && typeof v === 'object')
+    return Object.fromEntries(Object.entries(v).map(([k, x]) => [k, roundDeep(x)]))
   return v
 }
 
@@ -85,7 +91,10 @@ describe('Outlook and Side by side in Chromium', { timeout: 240_000 }, () => {
       return { status: res.status, body: text ? JSON.parse(text) : null }
     }
 
-  async function signedInPage(viewport: { width: number; height: number }): Promise<{ page: Page; context: BrowserContext }> {
+  async function signedInPage(viewport: {
+    width: number
+    height: number
+  }): Promise<{ page: Page; context: BrowserContext }> {
     const { page, context } = await newPage(browser, viewport)
     page.on('pageerror', (e) => console.error('[page error]', e.message))
     page.on('console', (m) => {
@@ -101,10 +110,17 @@ describe('Outlook and Side by side in Chromium', { timeout: 240_000 }, () => {
     browser = await launchBrowser()
     user = await createUser(server.ctx, { displayName: 'Ines Test' })
     const s = send(user.cookie)
-    winterId = (await storePlan(s, examplePlan('winter-week-lofoten'), { vehicle: 'Blue van', scenario: 'Winter week, Lofoten' }))
-      .scenarioId
+    winterId = (
+      await storePlan(s, examplePlan('winter-week-lofoten'), {
+        vehicle: 'Blue van',
+        scenario: 'Winter week, Lofoten',
+      })
+    ).scenarioId
     summerId = (
-      await storePlan(s, examplePlan('summer-month-andalusia'), { vehicle: 'Blue van (summer kit)', scenario: 'Summer month, Andalusia' })
+      await storePlan(s, examplePlan('summer-month-andalusia'), {
+        vehicle: 'Blue van (summer kit)',
+        scenario: 'Summer month, Andalusia',
+      })
     ).scenarioId
   })
   afterAll(async () => {
@@ -123,7 +139,9 @@ describe('Outlook and Side by side in Chromium', { timeout: 240_000 }, () => {
     })
     expect(await page.title()).toMatch(/^Outlook/)
     expect(await verdict.getAttribute('data-status')).toBe('short')
-    expect(await page.locator('[data-test="verdict-headline"]').innerText()).toMatch(/^Runs short on day \d+ at \d\d:00$/)
+    expect(await page.locator('[data-test="verdict-headline"]').innerText()).toMatch(
+      /^Runs short on day \d+ at \d\d:00$/,
+    )
 
     // The sizing searches ran in the worker; then the page's results can be downloaded as JSON.
     const json = page.locator('[data-test="download-json"]')
@@ -131,7 +149,9 @@ describe('Outlook and Side by side in Chromium', { timeout: 240_000 }, () => {
     await expect.poll(() => page.locator('[data-test="figure-pack-needed"]').innerText()).toMatch(/\d+ Ah/)
     const [download] = await Promise.all([page.waitForEvent('download'), json.click()])
     const browserResults = JSON.parse(readFileSync((await download.path())!, 'utf8'))
-    const serverAnswer = await (await page.request.get(`${server.url}/api/scenarios/${winterId}/results`)).json()
+    const serverAnswer = await (
+      await page.request.get(`${server.url}/api/scenarios/${winterId}/results`)
+    ).json()
     // Same engine, same plan JSON, but two JavaScript engines: Node 20's V8 and Chromium's newer V8 round the
     // last bit of Math.sin/cos/exp differently (the first difference is suncalc's sun elevation), so
     // bit-for-bit identity across the two is not attainable. Everything discrete must match exactly, every
@@ -139,9 +159,13 @@ describe('Outlook and Side by side in Chromium', { timeout: 240_000 }, () => {
     const diff = compareResults(browserResults, serverAnswer.results)
     expect(diff.mismatches).toEqual([])
     expect(diff.compared).toBeGreaterThan(1000)
-    console.info(`[identity] ${diff.compared} numbers; ${diff.lastBitDifferences} differ only beyond 1e-9 relative (max ${diff.maxRelative.toExponential(2)})`)
+    console.info(
+      `[identity] ${diff.compared} numbers; ${diff.lastBitDifferences} differ only beyond 1e-9 relative (max ${diff.maxRelative.toExponential(2)})`,
+    )
     for (const k of ['verdict', 'packNeeded', 'solarNeeded', 'autonomy'] as const) {
-      expect(JSON.stringify(roundDeep(browserResults[k]))).toBe(JSON.stringify(roundDeep(serverAnswer.results[k])))
+      expect(JSON.stringify(roundDeep(browserResults[k]))).toBe(
+        JSON.stringify(roundDeep(serverAnswer.results[k])),
+      )
     }
     expect(browserResults.verdict.status).toBe(serverAnswer.results.verdict.status)
     expect(browserResults.packNeeded.capacityAh).toBe(serverAnswer.results.packNeeded.capacityAh)
@@ -149,7 +173,9 @@ describe('Outlook and Side by side in Chromium', { timeout: 240_000 }, () => {
     // Every figure has its unit, the cold caution sits with the heater figures, charts have table alternatives.
     expect(await page.locator('[data-test="figure-autonomy"]').innerText()).toMatch(/days?|day/)
     expect(await page.locator('[data-test="figure-solar-needed"]').innerText()).toMatch(/Wp/)
-    expect(await page.locator('[data-test="figure-cold"] [data-test="cold-caution"]').innerText()).toMatch(/below freezing/)
+    expect(await page.locator('[data-test="figure-cold"] [data-test="cold-caution"]').innerText()).toMatch(
+      /below freezing/,
+    )
     for (const id of ['chart-soc', 'chart-temperature', 'chart-daily', 'chart-appliances']) {
       const card = page.locator(`[data-test="${id}"]`)
       expect(await card.locator('canvas').count()).toBe(1)
@@ -187,7 +213,9 @@ describe('Outlook and Side by side in Chromium', { timeout: 240_000 }, () => {
     await name.waitFor()
     await name.fill(`Winter week, ${capacity} Ah`)
     await page.locator('[data-test="save-confirm"]').click()
-    await page.waitForURL((url) => /\/scenarios\/[^/]+\/outlook$/.test(url.pathname) && !url.pathname.includes(winterId))
+    await page.waitForURL(
+      (url) => /\/scenarios\/[^/]+\/outlook$/.test(url.pathname) && !url.pathname.includes(winterId),
+    )
     savedId = page.url().split('/scenarios/')[1]!.split('/')[0]!
     await expect.poll(() => page.locator('h1').innerText()).toContain(`Winter week, ${capacity} Ah`)
     const saved = page.locator('[data-test="verdict"]')
@@ -218,7 +246,9 @@ describe('Outlook and Side by side in Chromium', { timeout: 240_000 }, () => {
     const { page, context } = await signedInPage(VIEWPORTS.phone)
     await page.goto(`${server.url}/scenarios/${winterId}/outlook`)
     await page.locator('[data-test="verdict"]').waitFor({ timeout: 60_000 })
-    await expect.poll(() => page.locator('[data-test="download-json"]').isEnabled(), { timeout: 60_000 }).toBe(true)
+    await expect
+      .poll(() => page.locator('[data-test="download-json"]').isEnabled(), { timeout: 60_000 })
+      .toBe(true)
     await page.waitForTimeout(300)
     await screenshot(page, 'outlook-phone')
     // Viewport-sized views too, to look at the phone layout at its real size.

@@ -8,7 +8,13 @@
  * edit to the vehicle or scenario changes the plan and so the key.
  */
 import { createHash } from 'node:crypto'
-import { analysePlan, resultsToJson, type Analysis, type Jsonified, type Plan } from '../../../shared/engine/index'
+import {
+  analysePlan,
+  resultsToJson,
+  type Analysis,
+  type Jsonified,
+  type Plan,
+} from '../../../shared/engine/index'
 
 export type ResultsJson = Jsonified<Analysis>
 

@@ -24,11 +24,19 @@ function bestOf(values: (number | null)[], better: Better): number[] {
   const present = values.filter((v): v is number => v !== null)
   if (present.length < 2 && values.length > 1 && present.length === 0) return []
   const target = better === 'higher' ? Math.max(...present) : Math.min(...present)
-  const hits = values.map((v, i) => (v !== null && Math.abs(v - target) < 1e-9 ? i : -1)).filter((i) => i >= 0)
+  const hits = values
+    .map((v, i) => (v !== null && Math.abs(v - target) < 1e-9 ? i : -1))
+    .filter((i) => i >= 0)
   return hits.length === values.length ? [] : hits
 }
 
-function row(key: string, label: string, better: Better, values: (number | null)[], fmt: (v: number | null) => string): CompareRow {
+function row(
+  key: string,
+  label: string,
+  better: Better,
+  values: (number | null)[],
+  fmt: (v: number | null) => string,
+): CompareRow {
   return { key, label, better, values, texts: values.map(fmt), best: bestOf(values, better) }
 }
 
@@ -48,23 +56,97 @@ export function compareRows(results: AnalysisJson[]): CompareRow[] {
       texts: rs.map((r) => verdictView(r).headline),
       best: [],
     },
-    row('days', 'Trip length', null, rs.map((r) => r.days.length), (v) => formatDays(v)),
-    row('lowest', 'Lowest charge', 'higher', rs.map((r) => r.summary.lowestSocFraction), formatPercent),
-    row('margin', 'Margin above the floor', 'higher', rs.map((r) => r.verdict.marginFraction), formatPercent),
-    row('final', 'Charge at the end', 'higher', rs.map((r) => r.summary.finalSocFraction), formatPercent),
+    row(
+      'days',
+      'Trip length',
+      null,
+      rs.map((r) => r.days.length),
+      (v) => formatDays(v),
+    ),
+    row(
+      'lowest',
+      'Lowest charge',
+      'higher',
+      rs.map((r) => r.summary.lowestSocFraction),
+      formatPercent,
+    ),
+    row(
+      'margin',
+      'Margin above the floor',
+      'higher',
+      rs.map((r) => r.verdict.marginFraction),
+      formatPercent,
+    ),
+    row(
+      'final',
+      'Charge at the end',
+      'higher',
+      rs.map((r) => r.summary.finalSocFraction),
+      formatPercent,
+    ),
     {
       ...row('autonomy', 'Autonomy (no charging)', 'higher', autonomy, (v) => formatDays(v)),
-      texts: rs.map((r) => (r.autonomy.days === null ? `more than ${r.autonomy.horizonDays} days` : formatDays(r.autonomy.days))),
+      texts: rs.map((r) =>
+        r.autonomy.days === null ? `more than ${r.autonomy.horizonDays} days` : formatDays(r.autonomy.days),
+      ),
     },
-    row('capacity', 'Pack', null, rs.map((r) => r.plan.battery.capacityAh), formatAh),
-    row('packNeeded', 'Pack needed', 'lower', rs.map((r) => r.packNeeded.capacityAh), (v) => (v === null ? 'not reachable' : formatAh(v))),
-    row('array', 'Solar array', null, rs.map((r) => r.plan.sources.solar.reduce((s, a) => s + a.peakPowerWp, 0)), formatWp),
-    row('solarNeeded', 'Solar needed', 'lower', rs.map((r) => r.solarNeeded.peakPowerWp), (v) => (v === null ? 'not reachable' : formatWp(v))),
+    row(
+      'capacity',
+      'Pack',
+      null,
+      rs.map((r) => r.plan.battery.capacityAh),
+      formatAh,
+    ),
+    row(
+      'packNeeded',
+      'Pack needed',
+      'lower',
+      rs.map((r) => r.packNeeded.capacityAh),
+      (v) => (v === null ? 'not reachable' : formatAh(v)),
+    ),
+    row(
+      'array',
+      'Solar array',
+      null,
+      rs.map((r) => r.plan.sources.solar.reduce((s, a) => s + a.peakPowerWp, 0)),
+      formatWp,
+    ),
+    row(
+      'solarNeeded',
+      'Solar needed',
+      'lower',
+      rs.map((r) => r.solarNeeded.peakPowerWp),
+      (v) => (v === null ? 'not reachable' : formatWp(v)),
+    ),
     row('in', 'Energy in', null, energyIn, formatEnergy),
-    row('out', 'Energy used', null, rs.map((r) => r.summary.energyOutWh), formatEnergy),
-    row('heater', 'Heater pad', 'lower', rs.map((r) => r.summary.heaterWh), formatEnergy),
-    row('blocked', 'Charging blocked by cold', 'lower', rs.map((r) => r.summary.chargeBlockedColdH), formatHours),
-    row('unserved', 'Loads not served', 'lower', rs.map((r) => r.summary.unservedWh), formatEnergy),
+    row(
+      'out',
+      'Energy used',
+      null,
+      rs.map((r) => r.summary.energyOutWh),
+      formatEnergy,
+    ),
+    row(
+      'heater',
+      'Heater pad',
+      'lower',
+      rs.map((r) => r.summary.heaterWh),
+      formatEnergy,
+    ),
+    row(
+      'blocked',
+      'Charging blocked by cold',
+      'lower',
+      rs.map((r) => r.summary.chargeBlockedColdH),
+      formatHours,
+    ),
+    row(
+      'unserved',
+      'Loads not served',
+      'lower',
+      rs.map((r) => r.summary.unservedWh),
+      formatEnergy,
+    ),
   ]
   return rows
 }

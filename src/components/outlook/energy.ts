@@ -65,7 +65,8 @@ export function applianceShares(r: SimulationJson): ApplianceShare[] {
     heater += d.heaterWh
   }
   if (heater > 0.5) items.push({ name: 'Battery heater pad', energyWh: heater, kind: 'heater' })
-  if (inverter > 0.5) items.push({ name: 'Inverter (idle and conversion)', energyWh: inverter, kind: 'system' })
+  if (inverter > 0.5)
+    items.push({ name: 'Inverter (idle and conversion)', energyWh: inverter, kind: 'system' })
   if (bms > 0.5) items.push({ name: 'BMS and monitor', energyWh: bms, kind: 'system' })
   return items.sort((a, b) => b.energyWh - a.energyWh)
 }

@@ -33,7 +33,8 @@ export function formatNumber(v: number, decimals = 0): string {
     .replace('-', MINUS)
 }
 
-const missing = (v: number | null | undefined): v is null | undefined => v === null || v === undefined || !Number.isFinite(v)
+const missing = (v: number | null | undefined): v is null | undefined =>
+  v === null || v === undefined || !Number.isFinite(v)
 
 /** Energy: below 1 kWh in Wh (whole), then kWh with 1 decimal (whole from 100 kWh). */
 export function formatEnergy(wh: number | null | undefined): string {

@@ -8,7 +8,12 @@ export type VerdictTone = 'positive' | 'warning' | 'negative'
 
 /** The fields of a simulation result the verdict reads (works on engine output and its JSON form). */
 export interface VerdictInput {
-  verdict: { status: 'carries' | 'tight' | 'short'; marginFraction: number; marginWh: number; message: string }
+  verdict: {
+    status: 'carries' | 'tight' | 'short'
+    marginFraction: number
+    marginWh: number
+    message: string
+  }
   summary: {
     lowestSocFraction: number
     lowestSocHour: number

@@ -51,7 +51,8 @@ export function whatIfBase(plan: Plan): WhatIfBase {
     sky: plan.trip.sky,
     hasSolar: solar.length > 0,
     hasDcDc: plan.sources.some((s) => s.kind === 'dcdc'),
-    nominalVoltageV: plan.battery.nominalVoltageV ?? plan.battery.cellsSeries * CELL_V[plan.battery.chemistry],
+    nominalVoltageV:
+      plan.battery.nominalVoltageV ?? plan.battery.cellsSeries * CELL_V[plan.battery.chemistry],
   }
 }
 
@@ -136,11 +137,13 @@ export function applyWhatIf(plan: Plan, w: WhatIf): Plan {
 /** A short name for a saved what-if: "Winter week · 300 Ah, 2 h driving". */
 export function whatIfLabel(w: WhatIf, base: WhatIfBase, fmtTemp: (c: number) => string): string {
   const parts: string[] = []
-  if (w.capacityAh !== undefined && w.capacityAh !== base.capacityAh) parts.push(`${Math.round(w.capacityAh)} Ah`)
+  if (w.capacityAh !== undefined && w.capacityAh !== base.capacityAh)
+    parts.push(`${Math.round(w.capacityAh)} Ah`)
   if (w.arrayWp !== undefined && w.arrayWp !== base.arrayWp) parts.push(`${Math.round(w.arrayWp)} Wp`)
   if (w.drivingHoursPerDay !== undefined && w.drivingHoursPerDay !== base.drivingHoursPerDay)
     parts.push(`${w.drivingHoursPerDay} h driving`)
-  if (w.nightLowC !== undefined && w.nightLowC !== base.nightLowC) parts.push(`nights ${fmtTemp(w.nightLowC)}`)
+  if (w.nightLowC !== undefined && w.nightLowC !== base.nightLowC)
+    parts.push(`nights ${fmtTemp(w.nightLowC)}`)
   if (w.sky !== undefined && w.sky !== base.sky) parts.push(`${w.sky} sky`)
   return parts.join(', ')
 }
