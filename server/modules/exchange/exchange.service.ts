@@ -185,16 +185,14 @@ export async function importPlanFile(
       .returning()
     const entries = Object.entries(usage)
     if (entries.length > 0) {
-      await tx
-        .insert(scenarioApplianceUsage)
-        .values(
-          entries.map(([applianceId, u]) => ({
-            scenarioId: row!.id,
-            applianceId,
-            usage: u,
-            updatedBy: actor.id,
-          })),
-        )
+      await tx.insert(scenarioApplianceUsage).values(
+        entries.map(([applianceId, u]) => ({
+          scenarioId: row!.id,
+          applianceId,
+          usage: u,
+          updatedBy: actor.id,
+        })),
+      )
     }
     await recordHistory(tx, {
       vehicleId,
