@@ -19,27 +19,36 @@ import {
 export type ResultsJson = Jsonified<Analysis>
 
 const CACHE_MAX = 64
-const cache = new Map<string, ResultsJson>()
+/** Each entry keeps the results and their JSON text, so a repeated request is not serialised again. */
+const cache = new Map<string, { results: ResultsJson; text: string }>()
 
 export function planKey(plan: Plan): string {
   return createHash('sha256').update(JSON.stringify(plan)).digest('hex')
 }
 
 /** The analysis of one plan, as JSON; `cached` says whether it came from the memo. */
-export function resultsForPlan(plan: Plan): { results: ResultsJson; cached: boolean; computedInMs: number } {
+export function resultsForPlan(plan: Plan): {
+  results: ResultsJson
+  /** `JSON.stringify(results)`, kept with the memo. */
+  text: string
+  key: string
+  cached: boolean
+  computedInMs: number
+} {
   const key = planKey(plan)
   const hit = cache.get(key)
   if (hit) {
     cache.delete(key)
     cache.set(key, hit) // most recently used last
-    return { results: hit, cached: true, computedInMs: 0 }
+    return { ...hit, key, cached: true, computedInMs: 0 }
   }
   const started = performance.now()
   const results = resultsToJson(analysePlan(plan))
   const computedInMs = performance.now() - started
+  const entry = { results, text: JSON.stringify(results) }
   if (cache.size >= CACHE_MAX) cache.delete(cache.keys().next().value as string)
-  cache.set(key, results)
-  return { results, cached: false, computedInMs }
+  cache.set(key, entry)
+  return { ...entry, key, cached: false, computedInMs }
 }
 
 /** For tests: forget memoised results. */
