@@ -3,15 +3,15 @@ import type { AppContext } from '../context'
 import { healthRouter } from './health'
 import { vehiclesRouter } from '../modules/vehicles/vehicles.routes'
 import { scenariosRouter } from '../modules/scenarios/scenarios.routes'
+import { resultsRouter } from '../modules/results/results.routes'
 import { placesRouter } from '../modules/places/places.routes'
 import { applianceLibraryRouter } from '../modules/vehicles/library'
-import { resultsRouter } from '../modules/results/results.routes'
 import { accountRouter, adminRouter, authRouter } from '../modules/auth/routes'
-import { buildSheetRouter } from '../modules/buildsheet/buildsheet.routes'
 import { crewRouter } from '../modules/crew/routes'
 import { advisorsRouter } from '../modules/advisors/routes'
 import { reviewsRouter } from '../modules/reviews/routes'
 import { paymentsWebhookRouter } from '../modules/payments/webhook'
+import { buildSheetRouter } from '../modules/buildsheet/buildsheet.routes'
 import { logsRouter } from '../modules/logs/logs.routes'
 import { exchangeRouter } from '../modules/exchange/exchange.routes'
 import { reportsRouter } from '../modules/reports/reports.routes'
@@ -24,9 +24,9 @@ export function apiRouter(ctx: AppContext): Router {
   api.use('/health', healthRouter(ctx))
   api.use('/vehicles', vehiclesRouter(ctx))
   api.use('/scenarios', scenariosRouter(ctx))
+  api.use('/scenarios', resultsRouter(ctx))
   api.use('/places', placesRouter(ctx))
   api.use('/appliance-library', applianceLibraryRouter(ctx))
-  api.use('/scenarios', resultsRouter(ctx))
   api.use('/auth', authRouter(ctx))
   api.use('/account', accountRouter(ctx))
   api.use('/admin', adminRouter(ctx))

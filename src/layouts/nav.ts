@@ -31,7 +31,13 @@ export const mainNav: NavItem[] = [
     label: 'Side by side',
     hint: 'Compare scenarios',
   },
-  { name: 'advisors', to: '/advisors', icon: 'support_agent', label: 'Advisors', hint: 'People who review plans' },
+  {
+    name: 'advisors',
+    to: '/advisors',
+    icon: 'support_agent',
+    label: 'Advisors',
+    hint: 'People who review plans',
+  },
   { name: 'reviews', to: '/reviews', icon: 'rate_review', label: 'Reviews', hint: 'Advice on your plans' },
   { name: 'account', to: '/account', icon: 'account_circle', label: 'Account', hint: 'Profile and units' },
   {
