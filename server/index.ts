@@ -3,13 +3,14 @@ import { loadEnv } from './env'
 import { buildContext } from './build-context'
 import { createApp } from './app'
 import { startBackgroundWorkers } from './workers'
+import { createHttpServer } from './http-server'
 
 /** Entry point: read the environment, build the app, listen, and shut down gracefully. */
 async function main(): Promise<void> {
   const env = loadEnv()
   const ctx = buildContext(env)
   const app = createApp(ctx, { clientDir: process.env.OHMWARD_CLIENT_DIR ?? 'dist' })
-  const server = app.listen(env.PORT, env.HOST)
+  const server = createHttpServer(app).listen(env.PORT, env.HOST)
   await new Promise<void>((ok, fail) => {
     server.once('listening', ok)
     server.once('error', fail)
