@@ -1,13 +1,12 @@
 import { Lucia, TimeSpan } from 'lucia'
-import { DrizzlePostgreSQLAdapter } from '@lucia-auth/adapter-drizzle'
 import type { Db } from '../db/client'
-import { sessions, users } from '../db/schema/index'
+import { PreparedSessionAdapter } from './session-adapter'
 
 /** Session cookie name; sessions last 30 days and extend when used in their second half (Lucia's rule). */
 export const SESSION_COOKIE = 'ohmward_session'
 
 export function createLucia(db: Db, secureCookies: boolean) {
-  const adapter = new DrizzlePostgreSQLAdapter(db, sessions, users)
+  const adapter = new PreparedSessionAdapter(db)
   return new Lucia(adapter, {
     sessionExpiresIn: new TimeSpan(30, 'd'),
     sessionCookie: {

@@ -216,6 +216,19 @@ describe('scenarios', () => {
       (await mine('get', '/api/scenarios?limit=2&offset=2').expect(200)).body,
     )
     expect(page.items).toHaveLength(1)
+    expect(page.total).toBe(3)
+    const past = ScenarioListSchema.parse(
+      (await mine('get', '/api/scenarios?limit=2&offset=10').expect(200)).body,
+    )
+    expect(past).toMatchObject({ items: [], total: 3 })
+    const pastOfB = ScenarioListSchema.parse(
+      (await mine('get', `/api/scenarios?vehicleId=${b}&offset=5`).expect(200)).body,
+    )
+    expect(pastOfB).toMatchObject({ items: [], total: 1 })
+    expect(all.items.find((s) => s.name === 'A1')!.updatedBy).toEqual({
+      id: me.id,
+      displayName: me.displayName,
+    })
     const onlyB = ScenarioListSchema.parse(
       (await mine('get', `/api/scenarios?vehicleId=${b}`).expect(200)).body,
     )

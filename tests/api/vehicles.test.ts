@@ -89,6 +89,13 @@ describe('vehicles', () => {
       (await call(me)('get', '/api/vehicles?limit=2&offset=2').expect(200)).body,
     )
     expect(rest.items).toHaveLength(1)
+    expect(rest.total).toBe(3)
+    // Past the last page: no rows, and still the right total.
+    const past = VehicleListSchema.parse(
+      (await call(me)('get', '/api/vehicles?limit=2&offset=10').expect(200)).body,
+    )
+    expect(past).toMatchObject({ items: [], total: 3, offset: 10 })
+    expect(page.items[0]!.updatedBy).toEqual({ id: me.id, displayName: me.displayName })
     const bad = await call(me)('get', '/api/vehicles?limit=500').expect(400)
     expect(Object.keys(bad.body.error.fields)).toEqual(['limit'])
   })

@@ -17,9 +17,11 @@ import {
   appliances,
   scenarioApplianceUsage,
   scenarios,
+  users,
   vehicleMemberships,
   vehicles,
 } from '../../db/schema/index'
+import { preparedFor } from '../../db/prepared'
 import { notFound, validationFailed } from '../../errors'
 import { isId, requireVehicleRole, type VehicleNeed } from '../vehicles/access'
 import {
@@ -133,34 +135,47 @@ const historyFields = (row: ScenarioRow, usage: ScenarioUsage) => ({
 // Lists
 // ---------------------------------------------------------------------------------------------
 
+/** One page of the scenarios a user can read, with who changed each last and the total, in one query. */
+const scenarioPage = preparedFor((db) =>
+  db
+    .select({
+      s: scenarios,
+      vehicleName: vehicles.name,
+      myRole: vehicleMemberships.role,
+      updatedByName: users.displayName,
+      total: sql<number>`(count(*) OVER ())::int`,
+    })
+    .from(scenarios)
+    .innerJoin(vehicleMemberships, eq(vehicleMemberships.vehicleId, scenarios.vehicleId))
+    .innerJoin(vehicles, eq(vehicles.id, scenarios.vehicleId))
+    .leftJoin(users, eq(users.id, scenarios.updatedBy))
+    .where(
+      and(
+        eq(vehicleMemberships.userId, sql.placeholder('userId')),
+        sql`(${sql.placeholder('vehicleId')}::uuid IS NULL OR ${scenarios.vehicleId} = ${sql.placeholder('vehicleId')}::uuid)`,
+      ),
+    )
+    .orderBy(desc(scenarios.updatedAt), scenarios.id)
+    .limit(sql.placeholder('limit'))
+    .offset(sql.placeholder('offset'))
+    .prepare('ohmward_scenario_page'),
+)
+
 /** Every scenario the user can read (optionally of one vehicle), most recently changed first. */
 export async function listScenarios(
   db: Db,
   actor: Actor,
   q: ScenarioListQuery,
 ): Promise<Page<ScenarioSummary>> {
-  const conditions: SQL[] = [eq(vehicleMemberships.userId, actor.id)]
-  if (q.vehicleId) conditions.push(eq(scenarios.vehicleId, q.vehicleId))
-  const where = and(...conditions)
-  const base = db
-    .select({ n: sql<number>`count(*)::int` })
-    .from(scenarios)
-    .innerJoin(vehicleMemberships, eq(vehicleMemberships.vehicleId, scenarios.vehicleId))
-  const [total] = await base.where(where)
-  const rows = await db
-    .select({ s: scenarios, vehicleName: vehicles.name, myRole: vehicleMemberships.role })
-    .from(scenarios)
-    .innerJoin(vehicleMemberships, eq(vehicleMemberships.vehicleId, scenarios.vehicleId))
-    .innerJoin(vehicles, eq(vehicles.id, scenarios.vehicleId))
-    .where(where)
-    .orderBy(desc(scenarios.updatedAt), scenarios.id)
-    .limit(q.limit)
-    .offset(q.offset)
-  const refs = await userRefs(
-    db,
-    rows.map((r) => r.s.updatedBy),
-  )
-  const items = rows.map(({ s, vehicleName, myRole }) => ({
+  const rows = await scenarioPage(db).execute({
+    userId: actor.id,
+    vehicleId: q.vehicleId ?? null,
+    limit: q.limit,
+    offset: q.offset,
+  })
+  // Past the last page there is no row to carry the total: count separately (rare).
+  const total = rows[0]?.total ?? (q.offset > 0 ? await countScenarios(db, actor.id, q.vehicleId) : 0)
+  const items = rows.map(({ s, vehicleName, myRole, updatedByName }) => ({
     id: s.id,
     vehicleId: s.vehicleId,
     vehicleName,
@@ -177,9 +192,20 @@ export async function listScenarios(
     dayHighC: s.trip.dayHighC,
     version: s.version,
     updatedAt: iso(s.updatedAt),
-    updatedBy: refOf(refs, s.updatedBy),
+    updatedBy: s.updatedBy && updatedByName !== null ? { id: s.updatedBy, displayName: updatedByName } : null,
   }))
-  return { items, total: total?.n ?? 0, limit: q.limit, offset: q.offset }
+  return { items, total, limit: q.limit, offset: q.offset }
+}
+
+async function countScenarios(db: Db, userId: string, vehicleId: string | undefined): Promise<number> {
+  const conditions: SQL[] = [eq(vehicleMemberships.userId, userId)]
+  if (vehicleId) conditions.push(eq(scenarios.vehicleId, vehicleId))
+  const [row] = await db
+    .select({ n: sql<number>`count(*)::int` })
+    .from(scenarios)
+    .innerJoin(vehicleMemberships, eq(vehicleMemberships.vehicleId, scenarios.vehicleId))
+    .where(and(...conditions))
+  return row?.n ?? 0
 }
 
 /** The scenarios of one vehicle (404 for non-members). */

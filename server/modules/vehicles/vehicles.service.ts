@@ -13,6 +13,7 @@ import type {
 import type { Db } from '../../db/client'
 import { users, vehicleMemberships, vehicles } from '../../db/schema/index'
 import { notFound } from '../../errors'
+import { preparedFor } from '../../db/prepared'
 import { requireVehicleRole } from './access'
 import {
   changedKeys,
@@ -90,21 +91,51 @@ async function loadDetail(db: DbOrTx, vehicleId: string, myRole: VehicleRole): P
   return { ...vehicle!, members: await listMembers(db, vehicleId) }
 }
 
-export async function listVehicles(db: Db, actor: Actor, page: PageQuery): Promise<Page<Vehicle>> {
-  const mine = eq(vehicleMemberships.userId, actor.id)
-  const [total] = await db
-    .select({ n: sql<number>`count(*)::int` })
-    .from(vehicleMemberships)
-    .where(mine)
-  const rows = await db
-    .select({ vehicle: vehicles, myRole: vehicleMemberships.role, ...counts })
+/** The list page in one prepared query: rows, their counts, who changed them last and the total. */
+const vehiclePage = preparedFor((db) =>
+  db
+    .select({
+      vehicle: vehicles,
+      myRole: vehicleMemberships.role,
+      ...counts,
+      updatedByName: users.displayName,
+      total: sql<number>`(count(*) OVER ())::int`,
+    })
     .from(vehicleMemberships)
     .innerJoin(vehicles, eq(vehicles.id, vehicleMemberships.vehicleId))
-    .where(mine)
+    .leftJoin(users, eq(users.id, vehicles.updatedBy))
+    .where(eq(vehicleMemberships.userId, sql.placeholder('userId')))
     .orderBy(desc(vehicles.updatedAt), vehicles.id)
-    .limit(page.limit)
-    .offset(page.offset)
-  return { items: await presentMany(db, rows), total: total?.n ?? 0, limit: page.limit, offset: page.offset }
+    .limit(sql.placeholder('limit'))
+    .offset(sql.placeholder('offset'))
+    .prepare('ohmward_vehicle_page'),
+)
+
+export async function listVehicles(db: Db, actor: Actor, page: PageQuery): Promise<Page<Vehicle>> {
+  const rows = await vehiclePage(db).execute({ userId: actor.id, limit: page.limit, offset: page.offset })
+  // Past the last page there is no row to carry the total: count separately (rare).
+  const total =
+    rows[0]?.total ??
+    (page.offset > 0
+      ? ((
+          await db
+            .select({ n: sql<number>`count(*)::int` })
+            .from(vehicleMemberships)
+            .where(eq(vehicleMemberships.userId, actor.id))
+        )[0]?.n ?? 0)
+      : 0)
+  const items = rows.map(({ vehicle: v, myRole, scenarioCount, applianceCount, updatedByName }) => ({
+    id: v.id,
+    ...editableFields(v),
+    myRole,
+    createdAt: iso(v.createdAt),
+    scenarioCount,
+    applianceCount,
+    version: v.version,
+    updatedAt: iso(v.updatedAt),
+    updatedBy: v.updatedBy && updatedByName !== null ? { id: v.updatedBy, displayName: updatedByName } : null,
+  }))
+  return { items, total, limit: page.limit, offset: page.offset }
 }
 
 /** Create a vehicle; the creator becomes its owner. */
