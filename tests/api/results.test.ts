@@ -122,4 +122,59 @@ describe('GET /api/scenarios/:scenarioId/results', () => {
     expect(res.status).toBe(422)
     expect(res.body.error.code).toBe('plan_incomplete')
   })
+
+  it('sends the same body gzip-compressed to a client that accepts it, with Vary and the same ETag', async () => {
+    const plain = await request(app)
+      .get(`/api/scenarios/${winter.scenarioId}/results`)
+      .set('Cookie', owner.cookie)
+      .set('Accept-Encoding', 'identity')
+    expect(plain.status).toBe(200)
+    expect(plain.headers['content-encoding']).toBeUndefined()
+    const gz = await request(app)
+      .get(`/api/scenarios/${winter.scenarioId}/results`)
+      .set('Cookie', owner.cookie)
+      .set('Accept-Encoding', 'gzip, deflate, br')
+    expect(gz.status).toBe(200)
+    expect(gz.headers['content-encoding']).toBe('gzip')
+    expect(gz.headers.vary).toMatch(/Accept-Encoding/i)
+    expect(gz.headers.etag).toBe(plain.headers.etag)
+    // supertest inflates the body: it is the same answer.
+    expect(gz.body).toEqual(plain.body)
+    expect(Number(gz.headers['content-length'])).toBeLessThan(
+      Buffer.byteLength(JSON.stringify(plain.body)) / 2,
+    )
+    const revalidated = await request(app)
+      .get(`/api/scenarios/${winter.scenarioId}/results`)
+      .set('Cookie', owner.cookie)
+      .set('If-None-Match', String(gz.headers.etag))
+    expect(revalidated.status).toBe(304)
+  })
+
+  it("runs each scenario with its own vehicle's equipment and usage, whatever else is stored", async () => {
+    // Two vehicles of one owner with different packs, arrays and usage: each plan (and so each result) must be
+    // built from its own rows only (the plan is read by one query with correlated subqueries).
+    const s = sender(owner)
+    const small = examplePlan('winter-week-lofoten')
+    const big = examplePlan('winter-week-lofoten')
+    big.battery = { ...big.battery, cellsParallel: 3 }
+    big.appliances = big.appliances.slice(0, 1)
+    const a = await storePlan(s, small, { vehicle: `Small pack ${uniq()}`, scenario: 'Week A' })
+    const b = await storePlan(s, big, { vehicle: `Big pack ${uniq()}`, scenario: 'Week B' })
+    const [planA, planB, resA, resB] = await Promise.all([
+      s('GET', `/api/scenarios/${a.scenarioId}/plan`),
+      s('GET', `/api/scenarios/${b.scenarioId}/plan`),
+      s('GET', `/api/scenarios/${a.scenarioId}/results`),
+      s('GET', `/api/scenarios/${b.scenarioId}/results`),
+    ])
+    expect(planA.body.battery.cellsParallel).toBe(1)
+    expect(planB.body.battery.cellsParallel).toBe(3)
+    expect(planA.body.appliances).toHaveLength(small.appliances.length)
+    expect(planB.body.appliances).toHaveLength(1)
+    expect(resA.body.results.plan.battery.cellsParallel).toBe(1)
+    expect(resB.body.results.plan.battery.cellsParallel).toBe(3)
+    expect(resB.body.results.autonomy).not.toEqual(resA.body.results.autonomy)
+    expect(resB.body.results.plan.appliances).toHaveLength(1)
+    expect(resA.body.results.plan.name).toContain('Week A')
+    expect(resB.body.results.plan.name).toContain('Week B')
+  })
 })

@@ -5,9 +5,12 @@
  *
  * Results depend only on the plan, so they are memoised by a hash of the plan's JSON (a small LRU):
  * opening an Outlook, a Side by side page and the API bench hit the same few plans again and again, and an
- * edit to the vehicle or scenario changes the plan and so the key.
+ * edit to the vehicle or scenario changes the plan and so the key. A second memo maps a scenario's plan snapshot
+ * (the text of the one query that reads its plan, server/modules/scenarios/plan.ts) to those results, so a
+ * repeated request skips assembling, validating and hashing the plan as well.
  */
 import { createHash } from 'node:crypto'
+import { gzipSync } from 'node:zlib'
 import {
   analysePlan,
   resultsToJson,
@@ -51,7 +54,60 @@ export function resultsForPlan(plan: Plan): {
   return { ...entry, key, cached: false, computedInMs }
 }
 
+/** The body of GET /api/scenarios/:scenarioId/results (docs/api.md). */
+export function resultsBody(scenarioId: string, computedInMs: number, cached: boolean, text: string): string {
+  return `{"scenarioId":${JSON.stringify(scenarioId)},"computedInMs":${Math.round(computedInMs)},"cached":${cached},"results":${text}}`
+}
+
+/** A results answer for one scenario, ready to send as it is or gzip-compressed. */
+export interface ResultsAnswer {
+  /** The plan's hash (the ETag). */
+  key: string
+  cached: boolean
+  body: string
+  /** The body, gzip-compressed; a memoised answer compresses once and keeps it. */
+  gzipped(): Buffer
+}
+
+interface SnapshotEntry {
+  key: string
+  body: string
+  gzip: Buffer | null
+}
+const bySnapshot = new Map<string, SnapshotEntry>()
+
+/**
+ * The results of a scenario from its plan snapshot: from the snapshot memo when this scenario's exact snapshot
+ * was seen, else through `toPlan` (which throws for an incomplete plan; nothing is memoised then) and
+ * `resultsForPlan`. The memoised answer keeps its body text and, once asked for, its gzip form, so a repeated
+ * request neither assembles, validates, hashes or serialises the plan and results, nor compresses them again.
+ */
+export function resultsForSnapshot(
+  scenarioId: string,
+  snapshot: string,
+  toPlan: (snapshot: string) => Plan,
+): ResultsAnswer {
+  const memoKey = `${scenarioId}\n${snapshot}`
+  const hit = bySnapshot.get(memoKey)
+  if (hit) {
+    bySnapshot.delete(memoKey)
+    bySnapshot.set(memoKey, hit)
+    return {
+      key: hit.key,
+      cached: true,
+      body: hit.body,
+      gzipped: () => (hit.gzip ??= gzipSync(hit.body)),
+    }
+  }
+  const out = resultsForPlan(toPlan(snapshot))
+  if (bySnapshot.size >= CACHE_MAX) bySnapshot.delete(bySnapshot.keys().next().value as string)
+  bySnapshot.set(memoKey, { key: out.key, body: resultsBody(scenarioId, 0, true, out.text), gzip: null })
+  const body = resultsBody(scenarioId, out.computedInMs, out.cached, out.text)
+  return { key: out.key, cached: out.cached, body, gzipped: () => gzipSync(body) }
+}
+
 /** For tests: forget memoised results. */
 export function clearResultsCache(): void {
   cache.clear()
+  bySnapshot.clear()
 }

@@ -3,16 +3,22 @@
  * appliance inventory (with this scenario's usage), charge sources and inverter, plus the scenario's trip.
  * Used by GET /api/scenarios/:scenarioId/plan, and by reports and stored results.
  */
-import { eq } from 'drizzle-orm'
-import { applyScenarioUsage, parsePlan, PLAN_FORMAT_VERSION, type Plan } from '../../../shared/schemas/plan'
+import { eq, sql, type SQL } from 'drizzle-orm'
+import {
+  applyScenarioUsage,
+  parsePlan,
+  PLAN_FORMAT_VERSION,
+  type ApplianceUsage,
+  type Plan,
+} from '../../../shared/schemas/plan'
+import type { VehicleRole } from '../../../shared/schemas/vehicles'
+import { OPEN_REVIEW_STATES } from '../../../shared/schemas/reviews'
 import type { Db } from '../../db/client'
-import { batteryBanks, inverters, scenarios, vehicles } from '../../db/schema/index'
+import { preparedFor } from '../../db/prepared'
+import { scenarios } from '../../db/schema/index'
 import { HttpError, notFound } from '../../errors'
 import { isId } from '../vehicles/access'
-import { loadApplianceRows } from '../vehicles/appliances.service'
 import type { DbOrTx } from '../vehicles/records'
-import { loadSourceRows } from '../vehicles/sources.service'
-import { loadUsage } from './scenarios.service'
 
 /** 422: the scenario's vehicle is not complete enough to simulate; `fields` says what is missing or wrong. */
 export const planIncomplete = (fields: Record<string, string[]>) =>
@@ -26,40 +32,106 @@ export const planIncomplete = (fields: Record<string, string[]>) =>
   )
 
 /**
- * The plan for a scenario. Does **not** check access: call `loadScenarioForUser(db, userId, scenarioId, 'read')`
- * (or `requireVehicleRole`) first. Throws 404 when the scenario does not exist, 422 `plan_incomplete` when
- * the combination is not a valid plan (no battery bank, an AC appliance without an inverter, …).
+ * Everything a scenario's plan is made of — the scenario, its vehicle's name, battery bank, inverter,
+ * appliances and charge sources in their list order, and this scenario's usage — as one JSON text from one
+ * query. The text is also what the results memo is keyed by: any edit to any of these changes it.
+ * Column names are written out with their table: inside the subqueries a bare `vehicle_id` would be theirs.
  */
-export async function buildPlanForScenario(db: Db | DbOrTx, scenarioId: string): Promise<Plan> {
-  if (!isId(scenarioId)) throw notFound('That scenario')
-  const [scenario] = await db.select().from(scenarios).where(eq(scenarios.id, scenarioId)).limit(1)
-  if (!scenario) throw notFound('That scenario')
-  const vehicleId = scenario.vehicleId
-  const [[vehicle], [battery], [inverter], applianceRows, sourceRows, usage] = await Promise.all([
-    db.select({ name: vehicles.name }).from(vehicles).where(eq(vehicles.id, vehicleId)),
-    db
-      .select({ params: batteryBanks.params })
-      .from(batteryBanks)
-      .where(eq(batteryBanks.vehicleId, vehicleId)),
-    db.select({ params: inverters.params }).from(inverters).where(eq(inverters.vehicleId, vehicleId)),
-    loadApplianceRows(db, vehicleId),
-    loadSourceRows(db, vehicleId),
-    loadUsage(db, scenarioId),
-  ])
-  if (!battery) throw planIncomplete({ battery: ['is required: add a battery bank to the vehicle'] })
-  const inventory = applianceRows.map((r) => ({ id: r.id, ...r.params }))
+const snapshot = sql<string>`json_build_object(
+  'scenarioName', scenarios.name,
+  'trip', scenarios.trip,
+  'vehicleName', (SELECT v.name FROM vehicles v WHERE v.id = scenarios.vehicle_id),
+  'battery', (SELECT b.params FROM battery_banks b WHERE b.vehicle_id = scenarios.vehicle_id),
+  'inverter', (SELECT i.params FROM inverters i WHERE i.vehicle_id = scenarios.vehicle_id),
+  'appliances', COALESCE((SELECT json_agg(json_build_object('id', a.id, 'params', a.params) ORDER BY a.seq)
+    FROM appliances a WHERE a.vehicle_id = scenarios.vehicle_id), '[]'::json),
+  'sources', COALESCE((SELECT json_agg(json_build_object('id', c.id, 'params', c.params) ORDER BY c.seq)
+    FROM charge_sources c WHERE c.vehicle_id = scenarios.vehicle_id), '[]'::json),
+  'usage', COALESCE((SELECT json_object_agg(u.appliance_id, u.usage)
+    FROM scenario_appliance_usage u WHERE u.scenario_id = scenarios.id), '{}'::json)
+)::text`
+
+interface Snapshot {
+  scenarioName: string
+  trip: unknown
+  vehicleName: string | null
+  battery: unknown
+  inverter: unknown
+  appliances: { id: string; params: Record<string, unknown> }[]
+  sources: { id: string; params: Record<string, unknown> }[]
+  usage: Record<string, ApplianceUsage>
+}
+
+/** The plan from a snapshot's text; 422 `plan_incomplete` when it is not a valid plan. */
+export function planFromSnapshot(text: string): Plan {
+  const s = JSON.parse(text) as Snapshot
+  if (s.battery === null)
+    throw planIncomplete({ battery: ['is required: add a battery bank to the vehicle'] })
+  const inventory = s.appliances.map((r) => ({ id: r.id, ...r.params })) as unknown as Plan['appliances']
   const candidate = {
     formatVersion: PLAN_FORMAT_VERSION,
-    name: `${vehicle?.name ?? 'Vehicle'} · ${scenario.name}`.slice(0, 200),
-    battery: battery.params,
-    appliances: applyScenarioUsage(inventory, usage),
-    sources: sourceRows.map((r) => ({ ...r.params, id: r.id })),
-    inverter: inverter?.params ?? null,
-    trip: scenario.trip,
+    name: `${s.vehicleName ?? 'Vehicle'} · ${s.scenarioName}`.slice(0, 200),
+    battery: s.battery,
+    appliances: applyScenarioUsage(inventory, s.usage),
+    sources: s.sources.map((r) => ({ ...r.params, id: r.id })),
+    inverter: s.inverter ?? null,
+    trip: s.trip,
   }
   const parsed = parsePlan(candidate)
   if (!parsed.ok) throw planIncomplete(withRecordIds(parsed.fields, candidate))
   return parsed.plan
+}
+
+/**
+ * The plan for a scenario. Does **not** check access: call `loadScenarioForUser(db, userId, scenarioId, 'read')`
+ * (or `requireVehicleRole`) first. Throws 404 when the scenario does not exist, 422 `plan_incomplete` when
+ * the combination is not a valid plan (no battery bank, an AC appliance without an inverter, …).
+ * Works inside a transaction too.
+ */
+export async function buildPlanForScenario(db: Db | DbOrTx, scenarioId: string): Promise<Plan> {
+  if (!isId(scenarioId)) throw notFound('That scenario')
+  const [row] = await db.select({ snapshot }).from(scenarios).where(eq(scenarios.id, scenarioId)).limit(1)
+  if (!row) throw notFound('That scenario')
+  return planFromSnapshot(row.snapshot)
+}
+
+const openReviewStates: SQL = sql.join(
+  OPEN_REVIEW_STATES.map((state) => sql`${state}`),
+  sql`, `,
+)
+
+/** The snapshot and the user's role on the scenario's vehicle (a member's, or an open review's advisor). */
+const snapshotForUser = preparedFor((db) =>
+  db
+    .select({
+      scenarioId: scenarios.id,
+      memberRole: sql<VehicleRole | null>`(SELECT m.role::text FROM vehicle_memberships m
+        WHERE m.vehicle_id = scenarios.vehicle_id AND m.user_id = ${sql.placeholder('userId')})`,
+      openReview: sql<boolean>`EXISTS (SELECT 1 FROM reviews r WHERE r.vehicle_id = scenarios.vehicle_id
+        AND r.advisor_id = ${sql.placeholder('userId')} AND r.state::text IN (${openReviewStates}))`,
+      snapshot,
+    })
+    .from(scenarios)
+    .where(eq(scenarios.id, sql.placeholder('scenarioId')))
+    .limit(1)
+    .prepare('ohmward_plan_snapshot_for_user'),
+)
+
+/**
+ * For read-only views of a scenario's plan (results): the plan's snapshot text if the user may read the
+ * scenario, in one prepared query. 404 when the scenario does not exist or the user is not on its vehicle,
+ * exactly as `loadScenarioForUser(…, 'read')` answers.
+ */
+export async function loadPlanSnapshotForReader(
+  db: Db,
+  userId: string,
+  scenarioId: string,
+): Promise<{ scenarioId: string; role: VehicleRole; snapshot: string }> {
+  if (!isId(scenarioId)) throw notFound('That scenario')
+  const [row] = await snapshotForUser(db).execute({ userId, scenarioId })
+  const role = row ? (row.memberRole ?? (row.openReview ? 'advisor' : null)) : null
+  if (!row || !role) throw notFound('That scenario')
+  return { scenarioId: row.scenarioId, role, snapshot: row.snapshot }
 }
 
 /** `appliances.3.supply` → `appliances.<id>.supply`, so the client can point at the record itself. */
