@@ -2,9 +2,12 @@
  * Logs (issue 9): preview an uploaded battery-monitor CSV, import it in one transaction, list uploads,
  * daily summaries, measured vs planned, and a calibrated copy of a scenario. Routes: logs.routes.ts.
  */
+import { once } from 'node:events'
 import { rm, stat } from 'node:fs/promises'
+import { finished } from 'node:stream/promises'
 import { desc, eq, sql } from 'drizzle-orm'
 import type pg from 'pg'
+import { from as copyFrom } from 'pg-copy-streams'
 import type {
   LogCalibrateAnswer,
   LogCompareAnswer,
@@ -145,62 +148,58 @@ export async function checkUpload(actor: Actor, vehicleId: string, uploadId: str
   return checkOf(await scanLog(pendingFile(uploadId), mapping, { maxRows: LOG_LIMITS.checkRows }))
 }
 
-const BATCH_ROWS = 5_000
+/**
+ * Samples go into log_samples with `COPY … FROM STDIN` (pg-copy-streams), inside the import's transaction:
+ * each row becomes one line of PostgreSQL's COPY text format, and lines are sent in pieces of about 64 kB with
+ * the connection's backpressure. Against batched `INSERT … SELECT FROM unnest(arrays)` this keeps no per-batch
+ * column arrays and builds no array literals, so far less garbage piles up in the server's heap during a
+ * 500,000-row import (bench:logs), and PostgreSQL takes the rows on its fastest path.
+ */
+const COPY_SAMPLES = `COPY log_samples (upload_id, ts, pack_voltage_v, current_a, soc_fraction, temperatures_c, cell_voltages_v) FROM STDIN`
+const COPY_PIECE_CHARS = 64 * 1024
 
-const INSERT_SAMPLES = `
-INSERT INTO log_samples (upload_id, ts, pack_voltage_v, current_a, soc_fraction, temperatures_c, cell_voltages_v)
-SELECT $1::uuid, to_timestamp(u.t / 1000.0), u.v, u.i, u.s, u.tc::real[], u.cv::real[]
-FROM unnest($2::float8[], $3::real[], $4::real[], $5::real[], $6::text[], $7::text[]) AS u(t, v, i, s, tc, cv)`
+/** COPY text for a list of numbers as a PostgreSQL array (`{3.301,3.302}`), or NULL (`\N`). */
+const copyArray = (xs: readonly number[] | null | undefined): string => (xs ? `{${xs.join(',')}}` : '\\N')
 
-/** Column-wise buffers of samples, sent as one INSERT … SELECT FROM unnest(arrays) per batch. */
-class SampleBatch {
-  t: number[] = []
-  v: number[] = []
-  i: number[] = []
-  s: (number | null)[] = []
-  tc: (string | null)[] = []
-  cv: (string | null)[] = []
-  push(x: LogSample): void {
-    this.t.push(x.tsMs)
-    this.v.push(x.packVoltageV)
-    this.i.push(x.currentA)
-    this.s.push(x.socFraction)
-    this.tc.push(x.temperaturesC ? `{${x.temperaturesC.join(',')}}` : null)
-    this.cv.push(x.cellVoltagesV ? `{${x.cellVoltagesV.join(',')}}` : null)
-  }
-  get size(): number {
-    return this.t.length
-  }
-  /** The insert still running: at most one, so parsing the next batch overlaps the database's work. */
-  private inFlight: Promise<unknown> | null = null
+class SampleCopy {
+  private readonly stream: ReturnType<typeof copyFrom>
+  private readonly done: Promise<void>
+  private text = ''
 
-  /** Send the batch; waits only for the previous batch's insert, not for this one. */
-  async flush(client: pg.PoolClient, uploadId: string): Promise<void> {
-    if (this.inFlight) await this.inFlight
-    this.inFlight = null
-    if (this.size === 0) return
-    const sent = client.query(INSERT_SAMPLES, [uploadId, this.t, this.v, this.i, this.s, this.tc, this.cv])
-    sent.catch(() => {}) // awaited by the next flush or by drain; this only avoids an unhandled rejection
-    this.inFlight = sent
-    this.t = []
-    this.v = []
-    this.i = []
-    this.s = []
-    this.tc = []
-    this.cv = []
+  constructor(
+    client: pg.PoolClient,
+    private readonly uploadId: string,
+  ) {
+    this.stream = client.query(copyFrom(COPY_SAMPLES))
+    this.done = finished(this.stream)
+    this.done.catch(() => {}) // awaited by finish() or abort(); this only avoids an unhandled rejection
   }
 
-  /** Send what is left and wait for every insert. */
-  async drain(client: pg.PoolClient, uploadId: string): Promise<void> {
-    await this.flush(client, uploadId)
-    if (this.inFlight) await this.inFlight
-    this.inFlight = null
+  /** Add one sample; returns a promise only when a piece was sent and the connection asks to wait. */
+  push(x: LogSample): Promise<void> | undefined {
+    this.text +=
+      `${this.uploadId}\t${new Date(x.tsMs).toISOString()}\t${x.packVoltageV}\t${x.currentA}\t` +
+      `${x.socFraction ?? '\\N'}\t${copyArray(x.temperaturesC)}\t${copyArray(x.cellVoltagesV)}\n`
+    return this.text.length >= COPY_PIECE_CHARS ? this.send() : undefined
   }
 
-  /** Wait for a running insert without sending more (before a rollback). */
-  async settle(): Promise<void> {
-    await this.inFlight?.catch(() => {})
-    this.inFlight = null
+  private async send(): Promise<void> {
+    const ok = this.stream.write(this.text)
+    this.text = ''
+    if (!ok) await once(this.stream, 'drain')
+  }
+
+  /** Send the rest and wait until PostgreSQL has taken every row. */
+  async finish(): Promise<void> {
+    if (this.text) await this.send()
+    this.stream.end()
+    await this.done
+  }
+
+  /** Give up (the file has problems): PostgreSQL fails the COPY; the caller rolls the transaction back. */
+  async abort(): Promise<void> {
+    this.stream.destroy(new Error('import abandoned: the file has problems'))
+    await this.done.catch(() => {})
   }
 }
 
@@ -244,20 +243,19 @@ export async function importUpload(
         actor.id,
       ],
     )
-    const batch = new SampleBatch()
-    scan = await scanLog(pendingFile(uploadId), mapping, {
-      summarise: true,
-      onSample: (s) => {
-        batch.push(s)
-        return batch.size >= BATCH_ROWS ? batch.flush(client, uploadId) : undefined
-      },
-    })
+    const copy = new SampleCopy(client, uploadId)
+    try {
+      scan = await scanLog(pendingFile(uploadId), mapping, { summarise: true, onSample: (s) => copy.push(s) })
+    } catch (err) {
+      await copy.abort()
+      throw err
+    }
     if (scan.errorCount > 0 || scan.rowCount === 0) {
-      await batch.settle()
+      await copy.abort()
       await client.query('ROLLBACK')
       throw importInvalid(scan)
     }
-    await batch.drain(client, uploadId)
+    await copy.finish()
     await client.query(INSERT_DAYS, [uploadId, JSON.stringify(scan.days)])
     await client.query(
       `UPDATE log_uploads SET row_count = $2, first_ts = $3, last_ts = $4, spread_trend = $5 WHERE id = $1`,
