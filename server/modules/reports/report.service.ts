@@ -7,7 +7,6 @@
 import { createRequire } from 'node:module'
 import { dirname, join } from 'node:path'
 import { and, asc, eq, inArray } from 'drizzle-orm'
-import pdfmake from 'pdfmake'
 import { REVIEW_VERDICT_LABEL, type ReviewVerdict } from '../../../shared/schemas/reviews'
 import type { Db } from '../../db/client'
 import { reviewComments, reviews, users, vehicles } from '../../db/schema/index'
@@ -31,10 +30,21 @@ export const REPORT_FONTS = {
 }
 const FONT_FILES = new Set(Object.values(REPORT_FONTS.Nunito))
 
-pdfmake.setFonts(REPORT_FONTS)
-// The report reads nothing from the network and only the shipped font files from disk.
-pdfmake.setUrlAccessPolicy(() => false)
-pdfmake.setLocalAccessPolicy((path) => FONT_FILES.has(path))
+/**
+ * pdfmake (with pdfkit, fontkit and their fonts' code) is loaded on the first report, not at start: it is
+ * about a fifth of the server's resting memory and most server processes never render a PDF.
+ */
+let pdfmakeLoaded: Promise<(typeof import('pdfmake'))['default']> | null = null
+function loadPdfmake() {
+  pdfmakeLoaded ??= import('pdfmake').then(({ default: pdfmake }) => {
+    pdfmake.setFonts(REPORT_FONTS)
+    // The report reads nothing from the network and only the shipped font files from disk.
+    pdfmake.setUrlAccessPolicy(() => false)
+    pdfmake.setLocalAccessPolicy((path) => FONT_FILES.has(path))
+    return pdfmake
+  })
+  return pdfmakeLoaded
+}
 
 /** Comments the advisors wrote on reviews of this scenario (not the client's, not event lines). */
 async function advisorReviews(db: Db, scenarioId: string): Promise<ReportReview[]> {
@@ -113,5 +123,6 @@ export async function reportInput(
 }
 
 export async function renderReportPdf(input: ReportInput): Promise<Buffer> {
+  const pdfmake = await loadPdfmake()
   return pdfmake.createPdf(buildReportDocument(input)).getBuffer()
 }
