@@ -60,12 +60,17 @@ export interface ServerProcess {
 export async function startServerProcess(
   dbUrl: string,
   env: Record<string, string> = {},
+  /**
+   * Extra arguments for node itself, e.g. `--cpu-prof` when profiling a bench; OHMWARD_SERVER_NODE_ARGS
+   * (space-separated) adds some to every server a bench or test starts.
+   */
+  nodeArgs: string[] = (process.env.OHMWARD_SERVER_NODE_ARGS ?? '').split(' ').filter(Boolean),
 ): Promise<ServerProcess> {
   const port = await freePort()
   const url = `http://127.0.0.1:${port}`
   // The production bundle, built per process so parallel test files never share a half-written file.
   const entry = await buildServer(resolve(ROOT, `dist-server/harness-${randomUUID()}.js`))
-  const child = spawn(process.execPath, [entry], {
+  const child = spawn(process.execPath, [...nodeArgs, entry], {
     cwd: ROOT,
     stdio: ['ignore', 'pipe', 'pipe'],
     env: {
