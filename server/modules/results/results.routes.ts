@@ -2,8 +2,8 @@ import { Router } from 'express'
 import type { AppContext } from '../../context'
 import { requireUser } from '../../middleware/require-user'
 import { actorOf } from '../vehicles/actor'
-import { loadPlanSnapshotForReader, planFromSnapshot } from '../scenarios/plan'
-import { resultsForSnapshot } from './results.service'
+import { loadPlanDigestForReader, loadPlanWithDigest } from '../scenarios/plan'
+import { resultsForDigest } from './results.service'
 
 /**
  * GET /api/scenarios/:scenarioId/results → `{ scenarioId, computedInMs, cached, results }`, `results` being
@@ -14,14 +14,14 @@ export function resultsRouter(ctx: AppContext): Router {
   const { db } = ctx
   const r = Router()
   r.get('/:scenarioId/results', requireUser, async (req, res) => {
-    // One prepared query: access and everything the plan is made of (the hot path of every Outlook and of
-    // Side by side; bench:api measures it).
-    const { scenarioId, snapshot } = await loadPlanSnapshotForReader(
+    // One prepared query: access, and the digest of everything the plan is made of (the hot path of every
+    // Outlook and of Side by side; bench:api measures it). The plan itself is read only when not memoised.
+    const { scenarioId, digest } = await loadPlanDigestForReader(
       db,
       actorOf(res).id,
       String(req.params.scenarioId),
     )
-    const answer = resultsForSnapshot(scenarioId, snapshot, planFromSnapshot)
+    const answer = await resultsForDigest(scenarioId, digest, () => loadPlanWithDigest(db, scenarioId))
     // The results are the same for the same plan: an ETag from the plan's hash lets a browser revalidate with a
     // 304, and the memoised body is sent as it is (no serialising 100+ kB per request), gzip-compressed once
     // for clients that accept it (every browser does; a month's results shrink from ~160 kB to ~35 kB).

@@ -5,9 +5,9 @@
  *
  * Results depend only on the plan, so they are memoised by a hash of the plan's JSON (a small LRU):
  * opening an Outlook, a Side by side page and the API bench hit the same few plans again and again, and an
- * edit to the vehicle or scenario changes the plan and so the key. A second memo maps a scenario's plan snapshot
- * (the text of the one query that reads its plan, server/modules/scenarios/plan.ts) to those results, so a
- * repeated request skips assembling, validating and hashing the plan as well.
+ * edit to the vehicle or scenario changes the plan and so the key. A second memo maps a scenario and the digest
+ * of its plan snapshot (which PostgreSQL computes, server/modules/scenarios/plan.ts) to the answer, so a
+ * repeated request skips reading, assembling, validating and hashing the plan as well.
  */
 import { createHash } from 'node:crypto'
 import { gzipSync } from 'node:zlib'
@@ -69,29 +69,31 @@ export interface ResultsAnswer {
   gzipped(): Buffer
 }
 
-interface SnapshotEntry {
+interface MemoEntry {
   key: string
   body: string
   gzip: Buffer | null
 }
-const bySnapshot = new Map<string, SnapshotEntry>()
+/** Results answers by scenario and plan-snapshot digest (server/modules/scenarios/plan.ts). */
+const byDigest = new Map<string, MemoEntry>()
 
 /**
- * The results of a scenario from its plan snapshot: from the snapshot memo when this scenario's exact snapshot
- * was seen, else through `toPlan` (which throws for an incomplete plan; nothing is memoised then) and
- * `resultsForPlan`. The memoised answer keeps its body text and, once asked for, its gzip form, so a repeated
- * request neither assembles, validates, hashes or serialises the plan and results, nor compresses them again.
+ * The results of a scenario whose plan snapshot has this digest: from the memo when this scenario's plan was
+ * seen as it is now, else through `loadPlan` (which throws for an incomplete plan; nothing is memoised then)
+ * and `resultsForPlan`. The memoised answer keeps its body text and, once asked for, its gzip form, so a
+ * repeated request neither reads, assembles, validates, hashes or serialises the plan and results, nor
+ * compresses them again.
  */
-export function resultsForSnapshot(
+export async function resultsForDigest(
   scenarioId: string,
-  snapshot: string,
-  toPlan: (snapshot: string) => Plan,
-): ResultsAnswer {
-  const memoKey = `${scenarioId}\n${snapshot}`
-  const hit = bySnapshot.get(memoKey)
+  digest: string,
+  loadPlan: () => Promise<{ plan: Plan; digest: string }>,
+): Promise<ResultsAnswer> {
+  const hit = byDigest.get(`${scenarioId}:${digest}`)
   if (hit) {
-    bySnapshot.delete(memoKey)
-    bySnapshot.set(memoKey, hit)
+    const memoKey = `${scenarioId}:${digest}`
+    byDigest.delete(memoKey)
+    byDigest.set(memoKey, hit)
     return {
       key: hit.key,
       cached: true,
@@ -99,9 +101,15 @@ export function resultsForSnapshot(
       gzipped: () => (hit.gzip ??= gzipSync(hit.body)),
     }
   }
-  const out = resultsForPlan(toPlan(snapshot))
-  if (bySnapshot.size >= CACHE_MAX) bySnapshot.delete(bySnapshot.keys().next().value as string)
-  bySnapshot.set(memoKey, { key: out.key, body: resultsBody(scenarioId, 0, true, out.text), gzip: null })
+  // The plan may have changed since the digest was read: memoise under the digest of what was computed.
+  const { plan, digest: current } = await loadPlan()
+  const out = resultsForPlan(plan)
+  if (byDigest.size >= CACHE_MAX) byDigest.delete(byDigest.keys().next().value as string)
+  byDigest.set(`${scenarioId}:${current}`, {
+    key: out.key,
+    body: resultsBody(scenarioId, 0, true, out.text),
+    gzip: null,
+  })
   const body = resultsBody(scenarioId, out.computedInMs, out.cached, out.text)
   return { key: out.key, cached: out.cached, body, gzipped: () => gzipSync(body) }
 }
@@ -109,5 +117,5 @@ export function resultsForSnapshot(
 /** For tests: forget memoised results. */
 export function clearResultsCache(): void {
   cache.clear()
-  bySnapshot.clear()
+  byDigest.clear()
 }

@@ -3,6 +3,7 @@
  * appliance inventory (with this scenario's usage), charge sources and inverter, plus the scenario's trip.
  * Used by GET /api/scenarios/:scenarioId/plan, and by reports and stored results.
  */
+import { createHash } from 'node:crypto'
 import { eq, sql, type SQL } from 'drizzle-orm'
 import {
   applyScenarioUsage,
@@ -34,7 +35,7 @@ export const planIncomplete = (fields: Record<string, string[]>) =>
 /**
  * Everything a scenario's plan is made of — the scenario, its vehicle's name, battery bank, inverter,
  * appliances and charge sources in their list order, and this scenario's usage — as one JSON text from one
- * query. The text is also what the results memo is keyed by: any edit to any of these changes it.
+ * query. Its digest is what the results memo is keyed by: any edit to any of these changes it.
  * Column names are written out with their table: inside the subqueries a bare `vehicle_id` would be theirs.
  */
 const snapshot = sql<string>`json_build_object(
@@ -100,8 +101,17 @@ const openReviewStates: SQL = sql.join(
   sql`, `,
 )
 
-/** The snapshot and the user's role on the scenario's vehicle (a member's, or an open review's advisor). */
-const snapshotForUser = preparedFor((db) =>
+/** SHA-256 (hex) of a snapshot's text as PostgreSQL computes it; `snapshotDigest` gives the same in Node. */
+const digestSql = sql<string>`encode(sha256(convert_to(${snapshot}, 'UTF8')), 'hex')`
+
+export const snapshotDigest = (text: string): string =>
+  createHash('sha256').update(text, 'utf8').digest('hex')
+
+/**
+ * The user's role on the scenario's vehicle (a member's, or an open review's advisor) and the digest of the
+ * scenario's plan snapshot: enough to serve memoised results without moving the snapshot itself (~6 kB).
+ */
+const digestForUser = preparedFor((db) =>
   db
     .select({
       scenarioId: scenarios.id,
@@ -109,29 +119,40 @@ const snapshotForUser = preparedFor((db) =>
         WHERE m.vehicle_id = scenarios.vehicle_id AND m.user_id = ${sql.placeholder('userId')})`,
       openReview: sql<boolean>`EXISTS (SELECT 1 FROM reviews r WHERE r.vehicle_id = scenarios.vehicle_id
         AND r.advisor_id = ${sql.placeholder('userId')} AND r.state::text IN (${openReviewStates}))`,
-      snapshot,
+      digest: digestSql,
     })
     .from(scenarios)
     .where(eq(scenarios.id, sql.placeholder('scenarioId')))
     .limit(1)
-    .prepare('ohmward_plan_snapshot_for_user'),
+    .prepare('ohmward_plan_digest_for_user'),
 )
 
 /**
- * For read-only views of a scenario's plan (results): the plan's snapshot text if the user may read the
- * scenario, in one prepared query. 404 when the scenario does not exist or the user is not on its vehicle,
+ * For read-only views of a scenario's plan (results): the digest of the plan's snapshot if the user may read
+ * the scenario, in one prepared query. 404 when the scenario does not exist or the user is not on its vehicle,
  * exactly as `loadScenarioForUser(…, 'read')` answers.
  */
-export async function loadPlanSnapshotForReader(
+export async function loadPlanDigestForReader(
   db: Db,
   userId: string,
   scenarioId: string,
-): Promise<{ scenarioId: string; role: VehicleRole; snapshot: string }> {
+): Promise<{ scenarioId: string; role: VehicleRole; digest: string }> {
   if (!isId(scenarioId)) throw notFound('That scenario')
-  const [row] = await snapshotForUser(db).execute({ userId, scenarioId })
+  const [row] = await digestForUser(db).execute({ userId, scenarioId })
   const role = row ? (row.memberRole ?? (row.openReview ? 'advisor' : null)) : null
   if (!row || !role) throw notFound('That scenario')
-  return { scenarioId: row.scenarioId, role, snapshot: row.snapshot }
+  return { scenarioId: row.scenarioId, role, digest: row.digest }
+}
+
+/** The scenario's plan and the digest of the snapshot it was built from (no access check: see above). */
+export async function loadPlanWithDigest(
+  db: Db,
+  scenarioId: string,
+): Promise<{ plan: Plan; digest: string }> {
+  if (!isId(scenarioId)) throw notFound('That scenario')
+  const [row] = await db.select({ snapshot }).from(scenarios).where(eq(scenarios.id, scenarioId)).limit(1)
+  if (!row) throw notFound('That scenario')
+  return { plan: planFromSnapshot(row.snapshot), digest: snapshotDigest(row.snapshot) }
 }
 
 /** `appliances.3.supply` → `appliances.<id>.supply`, so the client can point at the record itself. */
