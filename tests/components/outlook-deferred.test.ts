@@ -1,0 +1,179 @@
+// @vitest-environment happy-dom
+/**
+ * What a "Try a change" move updates at once and what it leaves for later: a part on screen follows its
+ * source in the same update; a part scrolled out of view catches up when the controls are still (idle time),
+ * when it comes into view, or before printing. And the charts' in-place update keeps chart.js's own dataset
+ * objects (so a dataset hidden from the legend stays hidden).
+ */
+import { afterEach, beforeEach, describe, expect, it, vi } from 'vitest'
+import { defineComponent, h, nextTick, ref, type Ref } from 'vue'
+import { mount } from '@vue/test-utils'
+import { useWhenVisible } from '../../src/components/chart/whenVisible'
+import { mergeDatasets, type AnyDataset } from '../../src/components/chart/useChart'
+
+/** A stand-in IntersectionObserver whose answers the test gives. */
+class FakeObserver {
+  static all: FakeObserver[] = []
+  constructor(private readonly cb: (entries: { isIntersecting: boolean }[]) => void) {
+    FakeObserver.all.push(this)
+  }
+  observe(): void {}
+  disconnect(): void {}
+  report(isIntersecting: boolean): void {
+    this.cb([{ isIntersecting }])
+  }
+}
+
+function mountShown(source: Ref<number>, onRead: () => void = () => {}) {
+  const Comp = defineComponent({
+    setup() {
+      const el = ref<HTMLElement | null>(null)
+      const shown = useWhenVisible(el, () => (onRead(), source.value))
+      return () => h('div', { ref: el, 'data-test': 'shown' }, String(shown.value))
+    },
+  })
+  return mount(Comp, { attachTo: document.body })
+}
+
+describe('useWhenVisible', () => {
+  beforeEach(() => {
+    FakeObserver.all = []
+    vi.useFakeTimers()
+    vi.stubGlobal('IntersectionObserver', FakeObserver)
+    // The fallback for browsers without requestIdleCallback: a short timer, which the fake clock drives.
+    vi.stubGlobal('requestIdleCallback', undefined)
+    vi.stubGlobal('cancelIdleCallback', undefined)
+  })
+  afterEach(() => {
+    vi.useRealTimers()
+    vi.unstubAllGlobals()
+  })
+
+  it('follows its source in the same update while on screen', async () => {
+    const source = ref(1)
+    const w = mountShown(source)
+    FakeObserver.all[0]!.report(true)
+    source.value = 2
+    await nextTick()
+    expect(w.text()).toBe('2')
+    source.value = 3
+    await nextTick()
+    expect(w.text()).toBe('3')
+    w.unmount()
+  })
+
+  it('off screen, waits until the source has been still, then catches up with the latest value', async () => {
+    const source = ref(1)
+    const w = mountShown(source)
+    FakeObserver.all[0]!.report(false)
+    source.value = 2
+    await nextTick()
+    expect(w.text()).toBe('1')
+    await vi.advanceTimersByTimeAsync(150)
+    source.value = 3 // another move inside the quiet time starts the wait again
+    await nextTick()
+    await vi.advanceTimersByTimeAsync(150)
+    expect(w.text()).toBe('1')
+    await vi.advanceTimersByTimeAsync(200)
+    await nextTick()
+    expect(w.text()).toBe('3')
+    w.unmount()
+  })
+
+  it('off screen, catches up at once when it comes into view, or before printing', async () => {
+    const source = ref(1)
+    const w = mountShown(source)
+    const io = FakeObserver.all[0]!
+    io.report(false)
+    source.value = 2
+    await nextTick()
+    expect(w.text()).toBe('1')
+    io.report(true)
+    await nextTick()
+    expect(w.text()).toBe('2')
+
+    io.report(false)
+    source.value = 5
+    await nextTick()
+    expect(w.text()).toBe('2')
+    window.dispatchEvent(new Event('beforeprint'))
+    await nextTick()
+    expect(w.text()).toBe('5')
+    w.unmount()
+  })
+
+  it('stops waiting when unmounted', async () => {
+    const source = ref(1)
+    let runs = 0
+    const w = mountShown(source, () => runs++)
+    FakeObserver.all[0]!.report(false)
+    source.value = 2
+    await nextTick()
+    const before = runs
+    w.unmount()
+    await vi.advanceTimersByTimeAsync(2000)
+    expect(runs).toBe(before)
+  })
+})
+
+describe('mergeDatasets (charts updated in place)', () => {
+  it('keeps the chart’s dataset objects, matched by label, and writes the new data into them', () => {
+    const a: AnyDataset = { label: 'Pack', data: [1, 2], borderDash: [2, 2] }
+    const b: AnyDataset = { label: 'Outside air', data: [3, 4] }
+    const next = [
+      { label: 'Outside air', data: [5, 6] },
+      { label: 'Pack', data: [7, 8] },
+    ]
+    const merged = mergeDatasets([a, b], next)
+    expect(merged[0]).toBe(b)
+    expect(merged[1]).toBe(a)
+    expect(a.data).toEqual([7, 8])
+    expect(b.data).toEqual([5, 6])
+    // A style the new dataset no longer has is removed, not left behind.
+    expect('borderDash' in a).toBe(false)
+  })
+
+  it('matches by position when a label changed but the number of datasets did not', () => {
+    const limit: AnyDataset = { label: 'Lowest charging temperature (0 °C)', data: [] }
+    const merged = mergeDatasets([limit], [{ label: 'Lowest charging temperature (32 °F)', data: [1] }])
+    expect(merged[0]).toBe(limit)
+    expect(limit.label).toBe('Lowest charging temperature (32 °F)')
+  })
+
+  it('prefers a label match over a position match', () => {
+    const pack: AnyDataset = { label: 'Pack', data: [1] }
+    const air: AnyDataset = { label: 'Outside air', data: [2] }
+    const merged = mergeDatasets(
+      [pack, air],
+      [
+        { label: 'New line', data: [3] },
+        { label: 'Pack', data: [4] },
+      ],
+    )
+    expect(merged[1]).toBe(pack)
+    expect(pack.data).toEqual([4])
+    // Position 0 is taken by the label match, so the new line is a new dataset (and the old one goes).
+    expect(merged[0]).not.toBe(pack)
+    expect(merged[0]).not.toBe(air)
+    expect(merged[0]!.label).toBe('New line')
+  })
+
+  it('adds new datasets as new objects and drops the ones that are gone', () => {
+    const solar: AnyDataset = { label: 'In: Solar', data: [1] }
+    const dcdc: AnyDataset = { label: 'In: Alternator (DC-DC)', data: [2] }
+    const loads: AnyDataset = { label: 'Out: loads', data: [3] }
+    const merged = mergeDatasets(
+      [solar, dcdc, loads],
+      [
+        { label: 'In: Solar', data: [4] },
+        { label: 'Out: loads', data: [5] },
+        { label: 'Out: heater pad', data: [6] },
+      ],
+    )
+    expect(merged).toHaveLength(3)
+    expect(merged[0]).toBe(solar)
+    expect(merged[1]).toBe(loads)
+    expect(merged[2]).not.toBe(dcdc)
+    expect(merged[2]!.label).toBe('Out: heater pad')
+  })
+})
