@@ -227,6 +227,47 @@ describe('Outlook and Side by side in Chromium', { timeout: 240_000 }, () => {
     await context.close()
   })
 
+  it('redraws the charts on screen in place within the move, and the parts out of view once they are seen', async () => {
+    const { page, context } = await signedInPage(VIEWPORTS.desktop)
+    await page.goto(`${server.url}/scenarios/${winterId}/outlook`)
+    await page.locator('[data-test="verdict"]').waitFor({ timeout: 60_000 })
+    const soc = page.locator('[data-test="chart-soc"] canvas')
+    const daily = page.locator('[data-test="daily-table"] tbody')
+    const pixels = () => soc.evaluate((c: HTMLCanvasElement) => c.toDataURL())
+    // Two frames, so the page has seen where things are after a scroll.
+    const settle = () =>
+      page.evaluate(
+        () => new Promise((r) => requestAnimationFrame(() => requestAnimationFrame(() => setTimeout(r)))),
+      )
+    await soc.scrollIntoViewIfNeeded()
+    await settle()
+    await soc.evaluate((c: HTMLCanvasElement) => (c.dataset.owMark = 'first'))
+    const chartBefore = await pixels()
+    const tableBefore = await daily.innerText()
+
+    // Moves at the top of the page, the charts and the day-by-day table out of view.
+    await page.evaluate(() => window.scrollTo(0, 0))
+    await settle()
+    const slider = page.locator('[data-test="try-capacity"]')
+    await slider.focus()
+    for (let i = 0; i < 3; i++) await page.keyboard.press('PageUp')
+    await soc.scrollIntoViewIfNeeded()
+    await expect.poll(pixels).not.toBe(chartBefore)
+    // The same canvas: the chart was updated, not re-created.
+    expect(await soc.evaluate((c: HTMLCanvasElement) => c.dataset.owMark)).toBe('first')
+    await page.locator('[data-test="daily-table"]').scrollIntoViewIfNeeded()
+    await expect.poll(() => daily.innerText()).not.toBe(tableBefore)
+
+    // With the chart on screen, it is redrawn by the time the move's key press has been handled.
+    await soc.scrollIntoViewIfNeeded()
+    await settle()
+    const shown = await pixels()
+    await slider.focus()
+    await page.keyboard.press('PageUp')
+    expect(await pixels()).not.toBe(shown)
+    await context.close()
+  })
+
   it('compares the saved change with the summer scenario from a shareable link', async () => {
     const { page, context } = await signedInPage(VIEWPORTS.desktop)
     await page.goto(`${server.url}/side-by-side?s=${savedId},${summerId}`)
