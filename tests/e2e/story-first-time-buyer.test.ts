@@ -115,7 +115,7 @@ describe('first-time buyer story', { timeout: 300_000 }, () => {
           await page.locator('[data-test="mailbox-refresh"]').click()
           return mail.isVisible()
         },
-        { timeout: 30_000, intervals: [250, 500, 1000] },
+        { timeout: 30_000, interval: 500 },
       )
       .toBe(true)
     await mail.click()
