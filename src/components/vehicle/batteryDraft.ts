@@ -99,13 +99,42 @@ export function draftFromBank(b: BatteryBank): BatteryDraft {
   }
 }
 
-/** The bank as stored: nulls dropped (the preset applies), capacity computed from the cells. */
-export function bankFromDraft(d: BatteryDraft): BatteryBank {
+/**
+ * Stored fields the form does not show (a plan file or the API can set them). Saving the form keeps them;
+ * the chemistry-specific ones are dropped when the chemistry changes (an LFP price or cycle life is wrong for
+ * AGM), and an explicit nominal voltage when the cells in series change. The box (enclosure) always stays.
+ */
+const KEPT_ALWAYS = ['enclosure'] as const
+const KEPT_SAME_CHEMISTRY = [
+  'chargeVoltageV',
+  'chargeTaperStartSocFraction',
+  'ratedDischargeH',
+  'specificHeatJPerKgK',
+  'cycleLifeCycles',
+  'cycleLifeDodFraction',
+  'pricePerKWh',
+] as const
+
+/**
+ * The bank as stored: nulls dropped (the preset applies), capacity computed from the cells. `stored` is the
+ * bank the form was opened on: what the form does not show is carried over from it, never silently dropped.
+ */
+export function bankFromDraft(d: BatteryDraft, stored: BatteryBank | null = null): BatteryBank {
   const bank: BatteryBank = {
     chemistry: d.chemistry,
     cellsSeries: d.cellsSeries,
     cellsParallel: d.cellsParallel,
   } as BatteryBank
+  if (stored) {
+    const keep = (k: keyof BatteryBank) => {
+      if (stored[k] !== undefined) (bank as Record<string, unknown>)[k] = structuredClone(stored[k])
+    }
+    KEPT_ALWAYS.forEach(keep)
+    if (stored.chemistry === d.chemistry) {
+      KEPT_SAME_CHEMISTRY.forEach(keep)
+      if (stored.cellsSeries === d.cellsSeries) keep('nominalVoltageV')
+    }
+  }
   if (d.cellCapacityAh !== null) {
     bank.cellCapacityAh = d.cellCapacityAh
     bank.capacityAh = d.cellCapacityAh * d.cellsParallel
