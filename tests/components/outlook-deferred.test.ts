@@ -9,7 +9,7 @@ import { afterEach, beforeEach, describe, expect, it, vi } from 'vitest'
 import { defineComponent, h, nextTick, ref, type Ref } from 'vue'
 import { mount } from '@vue/test-utils'
 import { useWhenVisible } from '../../src/components/chart/whenVisible'
-import { mergeDatasets, type AnyDataset } from '../../src/components/chart/useChart'
+import { mergeDatasets, sameData, type AnyDataset } from '../../src/components/chart/useChart'
 
 /** A stand-in IntersectionObserver whose answers the test gives. */
 class FakeObserver {
@@ -175,5 +175,20 @@ describe('mergeDatasets (charts updated in place)', () => {
     expect(merged[1]).toBe(loads)
     expect(merged[2]).not.toBe(dcdc)
     expect(merged[2]!.label).toBe('Out: heater pad')
+  })
+})
+
+describe('sameData (a chart is not redrawn for the same figures)', () => {
+  it('compares numbers, strings, arrays and plain objects by content and functions by identity', () => {
+    const f = (c: number) => c
+    expect(sameData([[1, 2, 3], 'C', f], [[1, 2, 3], 'C', f])).toBe(true)
+    expect(sameData([{ inWh: { solar: 1 }, heaterWh: 0 }], [{ inWh: { solar: 1 }, heaterWh: 0 }])).toBe(true)
+    expect(sameData([[1, 2, 3]], [[1, 2, 3.0001]])).toBe(false)
+    expect(sameData([[1, 2]], [[1, 2, 3]])).toBe(false)
+    expect(sameData([{ inWh: { solar: 1 } }], [{ inWh: { solar: 1, dcdc: 0 } }])).toBe(false)
+    expect(sameData(['C'], ['F'])).toBe(false)
+    expect(sameData([f], [(c: number) => c])).toBe(false)
+    expect(sameData([[]], [{}])).toBe(false)
+    expect(sameData([undefined], [null])).toBe(false)
   })
 })

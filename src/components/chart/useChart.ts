@@ -3,9 +3,10 @@
  * arrays into the chart's own dataset objects (matched by label, else by position), lets the component
  * adjust the few options that depend on the data, and redraws with `update('none')` (no animation, no
  * re-created chart, no re-resolved options objects from Vue). Nothing chart.js touches is made reactive.
+ * A change that leaves the chart's figures as they were (a new result with the same numbers) is not redrawn.
  * A chart scrolled out of view redraws in idle time or when it comes near the viewport (whenVisible.ts).
  */
-import { markRaw, onBeforeUnmount, onMounted, watch, type Ref, type WatchSource } from 'vue'
+import { markRaw, onBeforeUnmount, onMounted, watch, type Ref } from 'vue'
 import { Chart, type ChartConfiguration, type ChartData, type ChartType } from 'chart.js'
 import { useVisibleWork } from './whenVisible'
 
@@ -19,8 +20,8 @@ export interface ChartSpec<T extends ChartType> {
   data: () => ChartData<T>
   /** Options that follow the data (axis ends, band ranges), written into chart.options before a redraw. */
   tune?: (options: NonNullable<ChartConfiguration<T>['options']>) => void
-  /** What the chart draws: a change of any of these redraws it. */
-  sources: WatchSource[]
+  /** What the chart draws: a change of any of these redraws it (unless the values are equal to the drawn ones). */
+  sources: (() => unknown)[]
 }
 
 export type AnyDataset = Record<string, unknown> & { label?: string }
@@ -50,12 +51,35 @@ export function mergeDatasets(current: AnyDataset[], next: AnyDataset[]): AnyDat
   })
 }
 
+/** Same numbers, strings and shapes (arrays and plain objects compared by content, functions by identity). */
+export function sameData(a: unknown, b: unknown): boolean {
+  if (a === b) return true
+  if (typeof a !== 'object' || typeof b !== 'object' || a === null || b === null) return false
+  if (Array.isArray(a)) {
+    if (!Array.isArray(b) || a.length !== b.length) return false
+    for (let i = 0; i < a.length; i++) if (!sameData(a[i], b[i])) return false
+    return true
+  }
+  if (Array.isArray(b)) return false
+  const ka = Object.keys(a)
+  if (ka.length !== Object.keys(b).length) return false
+  for (const k of ka)
+    if (!sameData((a as Record<string, unknown>)[k], (b as Record<string, unknown>)[k])) return false
+  return true
+}
+
 export function useChart<T extends ChartType>(spec: ChartSpec<T>): { chart: () => Chart<T> | null } {
   let chart: Chart<T> | null = null
+  /** The sources' values the chart was last drawn from. */
+  let drawn: unknown[] = []
+  const read = () => spec.sources.map((s) => s())
 
   function redraw(): void {
     if (!chart) return
     const t0 = performance.now()
+    const now = read()
+    if (sameData(now, drawn)) return
+    drawn = now
     const d = spec.data()
     const cd = chart.data as unknown as { labels?: unknown[]; datasets: AnyDataset[] }
     if (d.labels !== undefined) cd.labels = d.labels as unknown[]
@@ -69,6 +93,7 @@ export function useChart<T extends ChartType>(spec: ChartSpec<T>): { chart: () =
 
   onMounted(() => {
     if (!spec.canvas.value) return
+    drawn = read()
     const config = { ...spec.config(), data: spec.data() } as ChartConfiguration<T>
     if (spec.tune && config.options) spec.tune(config.options as never)
     chart = markRaw(new Chart(spec.canvas.value, config)) as Chart<T>
