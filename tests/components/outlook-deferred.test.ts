@@ -11,18 +11,21 @@ import { mount } from '@vue/test-utils'
 import { useWhenVisible } from '../../src/components/chart/whenVisible'
 import { mergeDatasets, sameData, type AnyDataset } from '../../src/components/chart/useChart'
 
-/** A stand-in IntersectionObserver whose answers the test gives. */
+/** A stand-in IntersectionObserver whose answers the test gives (the page shares one for every part). */
 class FakeObserver {
-  static all: FakeObserver[] = []
-  constructor(private readonly cb: (entries: { isIntersecting: boolean }[]) => void) {
-    FakeObserver.all.push(this)
+  static current: FakeObserver | null = null
+  constructor(private readonly cb: (entries: { target: Element; isIntersecting: boolean }[]) => void) {
+    FakeObserver.current = this
   }
   observe(): void {}
+  unobserve(): void {}
   disconnect(): void {}
-  report(isIntersecting: boolean): void {
-    this.cb([{ isIntersecting }])
+  report(target: Element, isIntersecting: boolean): void {
+    this.cb([{ target, isIntersecting }])
   }
 }
+/** Tells the part mounted in `w` whether it is on screen. */
+const report = (w: { element: Element }, visible: boolean) => FakeObserver.current!.report(w.element, visible)
 
 function mountShown(source: Ref<number>, onRead: () => void = () => {}) {
   const Comp = defineComponent({
@@ -37,7 +40,6 @@ function mountShown(source: Ref<number>, onRead: () => void = () => {}) {
 
 describe('useWhenVisible', () => {
   beforeEach(() => {
-    FakeObserver.all = []
     vi.useFakeTimers()
     vi.stubGlobal('IntersectionObserver', FakeObserver)
     // The fallback for browsers without requestIdleCallback: a short timer, which the fake clock drives.
@@ -52,7 +54,7 @@ describe('useWhenVisible', () => {
   it('follows its source in the same update while on screen', async () => {
     const source = ref(1)
     const w = mountShown(source)
-    FakeObserver.all[0]!.report(true)
+    report(w, true)
     source.value = 2
     await nextTick()
     expect(w.text()).toBe('2')
@@ -65,7 +67,7 @@ describe('useWhenVisible', () => {
   it('off screen, waits until the source has been still, then catches up with the latest value', async () => {
     const source = ref(1)
     const w = mountShown(source)
-    FakeObserver.all[0]!.report(false)
+    report(w, false)
     source.value = 2
     await nextTick()
     expect(w.text()).toBe('1')
@@ -83,16 +85,15 @@ describe('useWhenVisible', () => {
   it('off screen, catches up at once when it comes into view, or before printing', async () => {
     const source = ref(1)
     const w = mountShown(source)
-    const io = FakeObserver.all[0]!
-    io.report(false)
+    report(w, false)
     source.value = 2
     await nextTick()
     expect(w.text()).toBe('1')
-    io.report(true)
+    report(w, true)
     await nextTick()
     expect(w.text()).toBe('2')
 
-    io.report(false)
+    report(w, false)
     source.value = 5
     await nextTick()
     expect(w.text()).toBe('2')
@@ -102,11 +103,25 @@ describe('useWhenVisible', () => {
     w.unmount()
   })
 
+  it('tells parts apart: one on screen follows at once while another out of view waits', async () => {
+    const source = ref(1)
+    const shown = mountShown(source)
+    const hidden = mountShown(source)
+    report(shown, true)
+    report(hidden, false)
+    source.value = 2
+    await nextTick()
+    expect(shown.text()).toBe('2')
+    expect(hidden.text()).toBe('1')
+    shown.unmount()
+    hidden.unmount()
+  })
+
   it('stops waiting when unmounted', async () => {
     const source = ref(1)
     let runs = 0
     const w = mountShown(source, () => runs++)
-    FakeObserver.all[0]!.report(false)
+    report(w, false)
     source.value = 2
     await nextTick()
     const before = runs

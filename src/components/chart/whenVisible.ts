@@ -29,6 +29,25 @@ function cancelIdle(id: number): void {
   else clearTimeout(id)
 }
 
+/** One observer for every part (the browser computes intersections once per frame for all of them). */
+let observer: IntersectionObserver | null = null
+const watched = new Map<Element, (visible: boolean) => void>()
+function observe(el: Element, cb: (visible: boolean) => void): () => void {
+  if (!observer)
+    observer = new IntersectionObserver(
+      (entries) => {
+        for (const e of entries) watched.get(e.target)?.(e.isIntersecting)
+      },
+      { rootMargin: MARGIN },
+    )
+  watched.set(el, cb)
+  observer.observe(el)
+  return () => {
+    watched.delete(el)
+    observer?.unobserve(el)
+  }
+}
+
 export interface VisibleWork {
   /**
    * Runs the work now when the element is (nearly) on screen; otherwise once the controls have been still
@@ -48,7 +67,7 @@ export function useVisibleWork(el: Ref<HTMLElement | null>, run: () => void): Vi
   let pending = false
   let idleId: number | null = null
   let quiet: ReturnType<typeof setTimeout> | null = null
-  let io: IntersectionObserver | null = null
+  let unobserve: (() => void) | null = null
 
   function cancel(): void {
     if (quiet !== null) clearTimeout(quiet)
@@ -73,22 +92,16 @@ export function useVisibleWork(el: Ref<HTMLElement | null>, run: () => void): Vi
   const beforePrint = () => flush()
 
   onMounted(() => {
-    if (typeof IntersectionObserver !== 'undefined' && el.value) {
-      io = new IntersectionObserver(
-        (entries) => {
-          const last = entries[entries.length - 1]
-          if (!last) return
-          visible = last.isIntersecting
-          if (visible) flush()
-        },
-        { rootMargin: MARGIN },
-      )
-      io.observe(el.value)
-    }
+    if (typeof IntersectionObserver !== 'undefined' && el.value)
+      unobserve = observe(el.value, (v) => {
+        visible = v
+        if (visible) flush()
+      })
     window.addEventListener('beforeprint', beforePrint)
   })
   onBeforeUnmount(() => {
-    io?.disconnect()
+    unobserve?.()
+    unobserve = null
     cancel()
     window.removeEventListener('beforeprint', beforePrint)
   })
