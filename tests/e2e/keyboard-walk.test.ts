@@ -8,7 +8,8 @@
  */
 import { describe, it, expect, beforeAll, afterAll } from 'vitest'
 import type { Browser, Page } from 'playwright-core'
-import { launchBrowser, newPage, screenshot } from '../support/browser'
+import { join } from 'node:path'
+import { launchBrowser, newPage } from '../support/browser'
 import { startTestServer, type RunningServer } from '../support/server'
 import { createUser, type TestUser } from '../support/factories'
 import { examplePlan, storePlan, type Send } from '../api/results.fixture'
@@ -201,6 +202,12 @@ async function tabTo(
   throw new Error(`${what} not reached by ${opts.back ? 'Shift+Tab' : 'Tab'}: ${trail.join(' → ')}`)
 }
 
+/** What the person sees (the viewport, with the focused control in it), in the git-ignored artifacts folder. */
+async function screenshot(page: Page, name: string): Promise<void> {
+  const dir = process.env.OHMWARD_ARTIFACTS ?? join(process.cwd(), 'artifacts')
+  await page.screenshot({ path: join(dir, `${name}.png`) })
+}
+
 /** After a page change: focus is on the new page's main heading (it may render after its data loads). */
 async function focusOnHeading(page: Page, text: string | RegExp): Promise<void> {
   await expect
@@ -290,6 +297,7 @@ describe('keyboard-only walk through the main flow', { timeout: 300_000 }, () =>
     for (let i = 0; i < 3; i++) await page.keyboard.press('ArrowRight')
     const tab = await focusNow(page)
     expect(tab).toMatchObject({ role: 'tab', dataTest: 'tab-scenarios' })
+    await screenshot(page, 'keyboard-1c-section-tab-focused')
     await page.keyboard.press('Enter')
     await page.waitForURL((u) => u.searchParams.get('section') === 'scenarios')
     await page.locator('[data-test="scenario-card-Winter week in Lofoten"]').waitFor()
