@@ -1,4 +1,4 @@
-import Stripe from 'stripe'
+import type Stripe from 'stripe'
 import { Decimal } from 'decimal.js'
 import type { Env } from '../../env'
 
@@ -7,8 +7,10 @@ let cached: { key: string; client: Stripe } | null = null
 /**
  * The payment provider's official SDK. With STRIPE_API_URL set (the local fake that `npm start` and
  * `npm test` run on loopback) every call goes there; without it, to the provider itself.
+ * The SDK is loaded on the first payment call, not at start: it is large (a few MB of code in memory) and
+ * most requests never pay.
  */
-export function stripeClient(env: Env): Stripe {
+export async function stripeClient(env: Env): Promise<Stripe> {
   const key = `${env.STRIPE_SECRET_KEY}|${env.STRIPE_API_URL ?? ''}`
   if (cached?.key === key) return cached.client
   const options: Stripe.StripeConfig = { maxNetworkRetries: 0, telemetry: false }
@@ -21,7 +23,9 @@ export function stripeClient(env: Env): Stripe {
   } else {
     options.maxNetworkRetries = 2
   }
-  const client = new Stripe(env.STRIPE_SECRET_KEY, options)
+  const { default: StripeSdk } = await import('stripe')
+  if (cached?.key === key) return cached.client
+  const client = new StripeSdk(env.STRIPE_SECRET_KEY, options)
   cached = { key, client }
   return client
 }

@@ -20,9 +20,10 @@ export function paymentsWebhookRouter(ctx: AppContext): Router {
     if (!signature || !Buffer.isBuffer(raw)) {
       throw new HttpError(400, 'bad_signature', 'The webhook has no valid signature.')
     }
+    const stripe = await stripeClient(ctx.env)
     let event: Stripe.Event
     try {
-      event = stripeClient(ctx.env).webhooks.constructEvent(raw, signature, ctx.env.STRIPE_WEBHOOK_SECRET)
+      event = stripe.webhooks.constructEvent(raw, signature, ctx.env.STRIPE_WEBHOOK_SECRET)
     } catch {
       req.log?.warn('payment webhook with a bad signature refused')
       throw new HttpError(400, 'bad_signature', 'The webhook signature does not match.')

@@ -222,7 +222,9 @@ export async function startCheckout(
   const base = appUrl(ctx)
   let session
   try {
-    session = await stripeClient(ctx.env).checkout.sessions.create(
+    session = await (
+      await stripeClient(ctx.env)
+    ).checkout.sessions.create(
       {
         mode: 'payment',
         line_items: [
@@ -436,7 +438,9 @@ async function refundInTx(ctx: AppContext, tx: Tx, r: ReviewRow): Promise<boolea
   if (!pay?.paymentIntentId) return false
   let refund
   try {
-    refund = await stripeClient(ctx.env).refunds.create(
+    refund = await (
+      await stripeClient(ctx.env)
+    ).refunds.create(
       { payment_intent: pay.paymentIntentId, reason: 'requested_by_customer', metadata: { reviewId: r.id } },
       { idempotencyKey: `refund-${pay.id}` },
     )
