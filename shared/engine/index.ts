@@ -58,7 +58,7 @@ export { prepareTrip, LOAD_CATEGORIES, SOURCE_KINDS } from './prepare.ts'
 export type { PreparedTrip, LoadCategory, SourceKind } from './prepare.ts'
 export { runPack } from './battery/run.ts'
 export type { HourlySeries, DayRow, RunTotals, RunOptions } from './battery/run.ts'
-export { autonomy, packNeeded, solarNeeded } from './sizing/search.ts'
+export { autonomy, packNeeded, solarNeeded, SOLAR_FULL_TOLERANCE_FRACTION } from './sizing/search.ts'
 export type { AutonomyResult, PackNeededResult, SolarNeededResult } from './sizing/search.ts'
 export {
   classicBatterySizing,

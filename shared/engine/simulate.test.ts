@@ -11,6 +11,7 @@ import {
   fillPlanDefaults,
   prepareTrip,
   runPack,
+  SOLAR_FULL_TOLERANCE_FRACTION,
   type Plan,
 } from './index.ts'
 import { expectClose } from './testing.ts'
@@ -271,21 +272,30 @@ describe('sizing answers', () => {
     expect(runPack(prep, { capacityAh: need - 1, record: false }).totals.shortageWh).toBeGreaterThan(1e-6)
   })
 
-  it('solar needed ends the trip no lower than it started (and 1 Wp less does not)', () => {
+  it('solar needed serves every load and ends full or no lower than it started (and 1 Wp less does not)', () => {
     const plan = load('summer-month-andalusia.json')
     const a = analysePlan(plan)
     const wp = a.solarNeeded.peakPowerWp!
+    expect(a.solarNeeded.capacityAh).toBe(a.plan.battery.capacityAh)
     const prep = prepareTrip(fillPlanDefaults(plan))
     const own = prep.plan.sources.solar.reduce((s, x) => s + x.peakPowerWp, 0)
-    const at = (w: number) => runPack(prep, { solarScale: w / own, record: false }).totals.finalSocFraction
-    expect(at(wp)).toBeGreaterThanOrEqual(plan.trip.startSocFraction - 1e-9)
-    expect(at(wp - 1)).toBeLessThan(plan.trip.startSocFraction)
+    const ceiling = prep.plan.battery.socCeilingFraction
+    const passes = (w: number) => {
+      const t = runPack(prep, { solarScale: w / own, record: false }).totals
+      return (
+        t.shortageWh <= 1e-6 &&
+        (t.finalSocFraction >= plan.trip.startSocFraction - 1e-9 ||
+          t.lastDayHighestSocFraction >= ceiling - SOLAR_FULL_TOLERANCE_FRACTION - 1e-9)
+      )
+    }
+    expect(passes(wp)).toBe(true)
+    expect(passes(wp - 1)).toBe(false)
   })
 
-  it('says why solar cannot help when the trip cannot end at its starting charge', () => {
+  it('the winter van gets a solar figure, not “not reachable”', () => {
     const a = analysePlan(load('winter-week-lofoten.json'))
-    expect(a.solarNeeded.peakPowerWp).toBeNull()
-    expect(a.solarNeeded.reason).toMatch(/\w+/)
+    expect(a.solarNeeded.peakPowerWp).toBeGreaterThan(0)
+    expect(a.solarNeeded.reason).toBeNull()
   })
 
   it('autonomy counts the heater: a colder trip empties the same pack sooner', () => {

@@ -21,9 +21,9 @@ import {
   type ClassicSizingResult,
 } from './sizing/classic.ts'
 import { compareChemistries, type ChemistryOption } from './sizing/chemistry.ts'
+import { TIGHT_MARGIN_FRACTION } from './margin.ts'
 
-/** Margin (SOC points above the floor at the lowest point) below which a carried trip is called tight. */
-export const TIGHT_MARGIN_FRACTION = 0.1
+export { TIGHT_MARGIN_FRACTION }
 
 export interface TripSummary {
   startSocFraction: number
@@ -234,7 +234,7 @@ export function analysePlan(plan: Plan, options: SimulateOptions = {}): Analysis
   progress(0.3, 'packNeeded')
   const pack = packNeeded(prep)
   progress(0.6, 'solarNeeded')
-  const solar = solarNeeded(prep)
+  const solar = solarNeeded(prep, pack.capacityAh)
   progress(0.95, 'comparisons')
   const result: Analysis = {
     ...sim,

@@ -36,6 +36,8 @@ export interface RunOptions {
   stopAtFirstShortage?: boolean
   /** Stop at the first hour shed at the floor or the current limit (pack-needed search: one is enough). */
   stopAtFirstFloorShortage?: boolean
+  /** Stop at the first hour ending below this SOC (the search for a pack with margin: one is enough). [0–1] */
+  stopBelowSocFraction?: number
 }
 
 export interface HourlySeries {
@@ -88,6 +90,8 @@ export interface RunTotals {
   finalSocFraction: number
   lowestSocFraction: number
   lowestSocHour: number
+  /** Highest end-of-hour SOC in the run's last 24 hours (its last local day): did the pack get back to full? */
+  lastDayHighestSocFraction: number
   /** Shed because the pack was at its floor or its discharge current limit. [Wh] */
   shortageWh: number
   /** Shed because the pack was outside its discharge temperature window. [Wh] */
@@ -288,6 +292,7 @@ export function runPack(prep: PreparedTrip, opt: RunOptions = {}): RunResult {
     finalSocFraction: startSoc,
     lowestSocFraction: startSoc,
     lowestSocHour: -1,
+    lastDayHighestSocFraction: 0,
     shortageWh: 0,
     dischargeBlockedWh: 0,
     inverterOverloadWh: 0,
@@ -306,6 +311,8 @@ export function runPack(prep: PreparedTrip, opt: RunOptions = {}): RunResult {
   const n = prep.hours
   let removedWh = 0
   const thStep: ThermalStepResult = { endTempC: 0, heaterOnEnd: false, heaterOnH: 0 }
+  const lastDayFrom = hoursToRun - 24
+  const stopBelow = opt.stopBelowSocFraction ?? -Infinity
 
   for (let h = 0; h < hoursToRun; h++) {
     const i = h % prep.hours
@@ -422,8 +429,10 @@ export function runPack(prep: PreparedTrip, opt: RunOptions = {}): RunResult {
       t.lowestSocFraction = soc
       t.lowestSocHour = h
     }
+    if (h >= lastDayFrom && soc > t.lastDayHighestSocFraction) t.lastDayHighestSocFraction = soc
     t.hoursRun = h + 1
     if (opt.stopAtFirstFloorShortage && t.shortageWh > 1e-6) break
+    if (soc < stopBelow) break
     if ((shortage > 1e-9 || dischargeBlocked > 1e-9) && t.firstShortageHour < 0) {
       t.firstShortageHour = h
       if (opt.stopAtFirstShortage) break
