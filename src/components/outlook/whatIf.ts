@@ -2,8 +2,9 @@
  * "Try a change": the five live controls and how they rewrite a plan. Pure, so the page, the worker and
  * the tests apply a change the same way. Only the controls the user moved are applied.
  */
-import type { Plan, SolarArray } from '@shared/schemas/plan'
-import { SKY_KINDS } from '@shared/schemas/plan'
+import type { BatteryBank, Plan, SolarArray } from '@shared/schemas/plan'
+import { PLAN_LIMITS, SKY_KINDS } from '@shared/schemas/plan'
+import { resolveBattery } from '@shared/engine/presets'
 
 export type Sky = (typeof SKY_KINDS)[number]
 
@@ -75,17 +76,36 @@ export function changesEquipment(w: WhatIf, base: WhatIfBase): boolean {
   )
 }
 
+/**
+ * The stored pack at another capacity, scaled exactly as the engine's own pack search scales it
+ * (shared/engine/battery/run.ts): mass and both current limits in proportion to capacity, the insulated box's
+ * area with capacity^(2/3) (a box of the same shape around a larger volume), the heater pad as it is. Every
+ * one is written out, so a default that follows capacity (the preset's pad, say) does not grow on its own:
+ * then Pack needed is the same whatever capacity is tried. Clamped at the plan format's limits, so a tried
+ * pack can always be saved (only packs of thousands of Ah reach them).
+ */
+export function scaledPack(battery: BatteryBank, capacityAh: number): Partial<BatteryBank> {
+  const r = resolveBattery(battery)
+  const scale = capacityAh / r.capacityAh
+  const amps = (a: number) => Math.min(PLAN_LIMITS.currentAMax, a * scale)
+  return {
+    capacityAh,
+    massKg: Math.min(10_000, r.massKg * scale),
+    maxChargeCurrentA: amps(r.maxChargeCurrentA),
+    maxDischargeCurrentA: amps(r.maxDischargeCurrentA),
+    enclosure: { ...r.enclosure, areaM2: Math.min(20, r.enclosure.areaM2 * Math.cbrt(scale * scale)) },
+    heater: r.heater,
+  }
+}
+
 /** A new plan with the change applied (the input is not modified). */
 export function applyWhatIf(plan: Plan, w: WhatIf): Plan {
   const p: Plan = structuredClone(plan)
   const base = whatIfBase(plan)
   if (w.capacityAh !== undefined && w.capacityAh !== base.capacityAh && w.capacityAh > 0) {
-    const scale = w.capacityAh / base.capacityAh
     const { cellCapacityAh: _drop, ...battery } = p.battery
     void _drop
-    p.battery = { ...battery, capacityAh: w.capacityAh }
-    // A bigger pack weighs more; the engine's own defaults scale the rest (current limits, box area).
-    if (battery.massKg !== undefined) p.battery.massKg = battery.massKg * scale
+    p.battery = { ...battery, ...scaledPack(plan.battery, w.capacityAh) }
   }
   if (w.arrayWp !== undefined && w.arrayWp !== base.arrayWp) {
     if (base.hasSolar && base.arrayWp > 0) {
