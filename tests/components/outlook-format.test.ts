@@ -8,10 +8,12 @@ import {
   formatNumber,
   formatPercent,
   formatTemperature,
+  formatTripHour,
   formatTripMoment,
   formatWp,
   temperatureFromDisplay,
 } from '../../src/components/outlook/format'
+import { dayAxis, dayTickLabel } from '../../src/components/chart/chartSetup'
 
 const metric = { unitSystem: 'metric', temperatureUnit: 'C' } as const
 const imperial = { unitSystem: 'imperial', temperatureUnit: 'F' } as const
@@ -67,11 +69,43 @@ describe('key-figure formatting', () => {
     expect(formatMass(100, imperial)).toBe('220 lb')
   })
 
-  it('names a moment of the trip by day and clock hour', () => {
-    expect(formatTripMoment(0)).toBe('day 1 at 00:00')
-    expect(formatTripMoment(67)).toBe('day 3 at 19:00')
-    // End-of-hour values (the SOC series): hour 23 ends at midnight of day 2.
-    expect(formatTripMoment(23, true)).toBe('day 2 at 00:00')
+  it('names a moment of the trip by the end of its hour, and a day’s last hour ends at 24:00 of that day', () => {
+    // Hour 0 covers 00:00–01:00 of day 1 and ends at 01:00.
+    expect(formatTripMoment(0)).toBe('day 1 at 01:00')
+    expect(formatTripMoment(67)).toBe('day 3 at 20:00')
+    // The last hour of day 1, and of a 7-day trip (hour 167): never "day 2 at 00:00" or "day 8 at 00:00".
+    expect(formatTripMoment(23)).toBe('day 1 at 24:00')
+    expect(formatTripMoment(7 * 24 - 1)).toBe('day 7 at 24:00')
+    expect(formatTripHour(0)).toBe('Day 1, 00:00–01:00')
+    expect(formatTripHour(167)).toBe('Day 7, 23:00–24:00')
     expect(formatNumber(-1234.5, 1)).toBe('−1,234.5')
+  })
+
+  it('labels the day axis where each day begins and the trip’s end as “end”, not a day after the trip', () => {
+    expect(dayTickLabel(0, 7)).toBe('day 1')
+    expect(dayTickLabel(6, 7)).toBe('day 7')
+    expect(dayTickLabel(7, 7)).toBe('end')
+    expect(dayTickLabel(28, 31)).toBe('day 29')
+    expect(dayTickLabel(31, 31)).toBe('end')
+  })
+
+  it('keeps day-axis ticks on whole steps: no tick at 31 on a monthly trip, “end” on a 7-day trip', () => {
+    const ticksFor = (days: number, values: number[]) => {
+      const axis = dayAxis(days)
+      const scale = { max: days, ticks: values.map((value) => ({ value })) }
+      axis.afterBuildTicks(scale)
+      return scale.ticks.map((t) => axis.ticks.callback.call({ max: days }, t.value))
+    }
+    expect(ticksFor(31, [0, 7, 14, 21, 28, 31])).toEqual(['day 1', 'day 8', 'day 15', 'day 22', 'day 29'])
+    expect(ticksFor(7, [0, 1, 2, 3, 4, 5, 6, 7])).toEqual([
+      'day 1',
+      'day 2',
+      'day 3',
+      'day 4',
+      'day 5',
+      'day 6',
+      'day 7',
+      'end',
+    ])
   })
 })

@@ -60,18 +60,28 @@ describe('the verdict', () => {
   it('answers first, in words, with the margin: carries', () => {
     const v = verdictView(made({ lowest: 0.33, lowestHour: 77 }))
     expect(v.headline).toBe('Carries the trip with 23 % to spare')
-    // Hour 77 ends at 06:00 of day 4.
+    // Hour 77 is 05:00–06:00 of day 4; times are the end of the hour.
     expect(v.detail).toBe('Lowest charge 33 % on day 4 at 06:00; the floor you set is 10 %.')
     expect(v.margin).toBe('23 % of the pack (589 Wh) stays above the floor at the lowest point.')
     expect(v.tone).toBe('positive')
   })
 
   it('says when a carried trip is tight, and when and how a short one runs out', () => {
-    expect(verdictView(made({ status: 'tight', lowest: 0.16 })).headline).toBe(
-      'Carries the trip, but only 6 % to spare',
+    const tight = verdictView(made({ status: 'tight', lowest: 0.16 }))
+    expect(tight.headline).toBe('Carries the trip, but only 6 % to spare')
+    expect(tight.margin).toContain('A plain “carries” keeps at least 10 % in reserve')
+    // The bare Pack needed leaves nothing above the floor: said in words, not as "0 %".
+    expect(verdictView(made({ status: 'tight', lowest: 0.1002 })).headline).toBe(
+      'Carries the trip, with nothing to spare',
+    )
+    // The trip's last hour is its end, at 24:00 of the last day.
+    expect(verdictView({ ...made({ lowest: 0.5, lowestHour: 167 }), hours: 168 }).detail).toBe(
+      'Lowest charge 50 % on day 7 at 24:00, the end of the trip; the floor you set is 10 %.',
     )
     const short = verdictView(made({ status: 'short', lowest: 0.1, first: 77, unserved: 1234 }))
-    expect(short.headline).toBe('Runs short on day 4 at 05:00')
+    // The first hour shed and the lowest charge are the same hour, and read as the same time.
+    expect(short.headline).toBe('Runs short on day 4 at 06:00')
+    expect(short.detail).toBe('Lowest charge 10 %, the floor you set, on day 4 at 06:00.')
     expect(short.margin).toBe('1.2 kWh of loads would go unserved over the trip.')
     expect(short.tone).toBe('negative')
     // Shed only through the inverter rating: there is no first hour at the floor.
@@ -86,7 +96,7 @@ describe('the verdict', () => {
       global: { plugins: [[Quasar, {}], pinia] },
     })
     expect(w.get('[data-test="verdict"]').attributes('data-status')).toBe('short')
-    expect(w.get('h2').text()).toBe('Runs short on day 3 at 02:00')
+    expect(w.get('h2').text()).toBe('Runs short on day 3 at 03:00')
     expect(w.text()).toContain('with your change, not saved')
     expect(w.find('.q-icon').text()).toBe('battery_alert')
   })

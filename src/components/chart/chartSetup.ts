@@ -125,7 +125,24 @@ export function hourRanges(n: number, test: (i: number) => boolean): [number, nu
   return out
 }
 
-/** x-axis in days from the trip start, ticks on whole days ("day 1" sits between 0 and 1). */
+/** Tick spacing of the day axis: every day up to two weeks, then weekly, then monthly. [day] */
+function dayStep(days: number): number {
+  return days > 60 ? 30 : days > 14 ? 7 : 1
+}
+
+/**
+ * The label of a day-axis tick at `value` days from the trip start: a tick marks where a day begins
+ * ("day 1" at 0, "day 2" at 1), and the trip's last tick marks its end ("end", never "day 8" on a 7-day trip).
+ */
+export function dayTickLabel(value: number, tripDays: number): string {
+  return value >= tripDays - 1e-9 ? 'end' : `day ${Math.round(value) + 1}`
+}
+
+/**
+ * x-axis in days from the trip start, ticks where days begin (every day, week or month), and the end of the
+ * trip marked "end" when it falls on a tick. The trip's length is read from the axis' own max when the
+ * labels are drawn, so a chart whose trip length changes (Side by side) labels its ticks right.
+ */
 export function dayAxis(days: number) {
   return {
     type: 'linear' as const,
@@ -133,10 +150,17 @@ export function dayAxis(days: number) {
     max: days,
     grid: { color: SERIES.grid },
     ticks: {
-      stepSize: days > 60 ? 30 : days > 14 ? 7 : 1,
-      callback: (v: number | string) => `day ${Number(v) + 1}`,
+      stepSize: dayStep(days),
+      callback(this: { max: number }, v: number | string) {
+        return dayTickLabel(Number(v), this.max)
+      },
       maxRotation: 0,
       autoSkipPadding: 12,
+    },
+    // chart.js adds a tick at the axis' max even off the step (31 on a monthly trip): keep only whole steps.
+    afterBuildTicks(scale: { max: number; ticks: { value: number }[] }) {
+      const step = dayStep(scale.max)
+      scale.ticks = scale.ticks.filter((t) => Math.abs(t.value / step - Math.round(t.value / step)) < 1e-9)
     },
     title: { display: false, text: '' },
   }

@@ -100,14 +100,22 @@ export function formatMass(kg: number | null | undefined, prefs: UnitPrefs): str
 }
 
 /**
- * A moment of the trip from an hour index (hour i covers [i, i+1) from local midnight of day 1):
- * "day 4 at 06:00". `atEnd` names the end of the hour (the SOC series holds end-of-hour values).
+ * Clock times on every Outlook screen name the END of an hour of the hourly run. Hour i covers [i, i+1) from
+ * local midnight of day 1; its state of charge is taken at its end, and a shortfall in it has happened by
+ * then. So "day 4 at 06:00" is the hour from 05:00 to 06:00 of day 4, and the last hour of a day ends at
+ * 24:00 of that day ("day 7 at 24:00"), never at 00:00 of a day after the trip.
  */
-export function formatTripMoment(hourIndex: number, atEnd = false): string {
-  const h = hourIndex + (atEnd ? 1 : 0)
-  const day = Math.floor(h / 24) + 1
-  const clock = String(h % 24).padStart(2, '0')
+export function formatTripMoment(hourIndex: number): string {
+  const day = Math.floor(hourIndex / 24) + 1
+  const clock = String((hourIndex % 24) + 1).padStart(2, '0')
   return `day ${day} at ${clock}:00`
+}
+
+/** The hour itself, for tables: "Day 4, 05:00–06:00" (the last one of a day ends at 24:00). */
+export function formatTripHour(hourIndex: number): string {
+  const day = Math.floor(hourIndex / 24) + 1
+  const h = hourIndex % 24
+  return `Day ${day}, ${String(h).padStart(2, '0')}:00–${String(h + 1).padStart(2, '0')}:00`
 }
 
 /** Money with a currency code: "1,240 EUR" (whole units; plan prices are rough). */

@@ -2,6 +2,7 @@
  * The one-line answer (Verdict) in plain words, built from the engine's verdict and trip summary.
  * Pure: the component and the Side by side table both use it.
  */
+import { TIGHT_MARGIN_FRACTION } from '@shared/engine/margin'
 import { formatEnergy, formatPercent, formatTripMoment } from './format'
 
 export type VerdictTone = 'positive' | 'warning' | 'negative'
@@ -24,6 +25,8 @@ export interface VerdictInput {
   }
   totals: { firstShortageHour: number }
   plan: { battery: { socFloorFraction: number } }
+  /** Hours in the trip, to say when a moment is the trip's end. */
+  hours?: number
 }
 
 export interface VerdictView {
@@ -38,11 +41,20 @@ export interface VerdictView {
   margin: string
 }
 
+/** "day 7 at 24:00, the end of the trip" for the trip's last hour; the clock is the end of the hour (format.ts). */
+function when(hourIndex: number, hours: number | undefined): string {
+  const at = formatTripMoment(hourIndex)
+  return hours !== undefined && hourIndex === hours - 1 ? `${at}, the end of the trip` : at
+}
+
 export function verdictView(r: VerdictInput): VerdictView {
   const s = r.summary
   const floor = r.plan.battery.socFloorFraction
-  const lowestWhen = s.lowestSocHour >= 0 ? ` on ${formatTripMoment(s.lowestSocHour, true)}` : ''
-  const detail = `Lowest charge ${formatPercent(s.lowestSocFraction)}${lowestWhen}; the floor you set is ${formatPercent(floor)}.`
+  const atFloor = formatPercent(s.lowestSocFraction) === formatPercent(floor)
+  const lowestWhen = s.lowestSocHour >= 0 ? ` on ${when(s.lowestSocHour, r.hours)}` : ''
+  const detail = atFloor
+    ? `Lowest charge ${formatPercent(s.lowestSocFraction)}, the floor you set,${lowestWhen}.`
+    : `Lowest charge ${formatPercent(s.lowestSocFraction)}${lowestWhen}; the floor you set is ${formatPercent(floor)}.`
   if (r.verdict.status === 'short') {
     const first = r.totals.firstShortageHour
     const headline =
@@ -63,9 +75,12 @@ export function verdictView(r: VerdictInput): VerdictView {
       status: 'tight',
       tone: 'warning',
       icon: 'warning',
-      headline: `Carries the trip, but only ${pct} to spare`,
+      headline:
+        pct === '0 %'
+          ? 'Carries the trip, with nothing to spare'
+          : `Carries the trip, but only ${pct} to spare`,
       detail,
-      margin,
+      margin: `${margin} A plain “carries” keeps at least ${formatPercent(TIGHT_MARGIN_FRACTION)} in reserve, for a colder night or a duller day than planned.`,
     }
   }
   return {
