@@ -4,6 +4,7 @@ import type {
   Member,
   Page,
   PageQuery,
+  UserRef,
   Vehicle,
   VehicleCreate,
   VehicleDetail,
@@ -42,15 +43,19 @@ const editableFields = (v: VehicleRow) => ({
   notes: v.notes,
 })
 
-async function presentMany(
-  db: DbOrTx,
-  rows: { vehicle: VehicleRow; myRole: VehicleRole; scenarioCount: number; applianceCount: number }[],
-): Promise<Vehicle[]> {
-  const refs = await userRefs(
-    db,
-    rows.map((r) => r.vehicle.updatedBy),
-  )
-  return rows.map(({ vehicle: v, myRole, scenarioCount, applianceCount }) => ({
+interface VehicleListRow {
+  vehicle: VehicleRow
+  myRole: VehicleRole
+  scenarioCount: number
+  applianceCount: number
+}
+
+/** The API form of a vehicle row; `updatedBy` is who changed it last (looked up by the caller). */
+function presentOne(
+  { vehicle: v, myRole, scenarioCount, applianceCount }: VehicleListRow,
+  updatedBy: UserRef | null,
+): Vehicle {
+  return {
     id: v.id,
     ...editableFields(v),
     myRole,
@@ -59,8 +64,16 @@ async function presentMany(
     applianceCount,
     version: v.version,
     updatedAt: iso(v.updatedAt),
-    updatedBy: refOf(refs, v.updatedBy),
-  }))
+    updatedBy,
+  }
+}
+
+async function presentMany(db: DbOrTx, rows: VehicleListRow[]): Promise<Vehicle[]> {
+  const refs = await userRefs(
+    db,
+    rows.map((r) => r.vehicle.updatedBy),
+  )
+  return rows.map((r) => presentOne(r, refOf(refs, r.vehicle.updatedBy)))
 }
 
 export async function listMembers(db: DbOrTx, vehicleId: string): Promise<Member[]> {
@@ -124,17 +137,14 @@ export async function listVehicles(db: Db, actor: Actor, page: PageQuery): Promi
             .where(eq(vehicleMemberships.userId, actor.id))
         )[0]?.n ?? 0)
       : 0)
-  const items = rows.map(({ vehicle: v, myRole, scenarioCount, applianceCount, updatedByName }) => ({
-    id: v.id,
-    ...editableFields(v),
-    myRole,
-    createdAt: iso(v.createdAt),
-    scenarioCount,
-    applianceCount,
-    version: v.version,
-    updatedAt: iso(v.updatedAt),
-    updatedBy: v.updatedBy && updatedByName !== null ? { id: v.updatedBy, displayName: updatedByName } : null,
-  }))
+  const items = rows.map((r) =>
+    presentOne(
+      r,
+      r.vehicle.updatedBy && r.updatedByName !== null
+        ? { id: r.vehicle.updatedBy, displayName: r.updatedByName }
+        : null,
+    ),
+  )
   return { items, total, limit: page.limit, offset: page.offset }
 }
 
