@@ -1,6 +1,6 @@
 // @vitest-environment happy-dom
 import { describe, expect, it, beforeEach } from 'vitest'
-import { mount } from '@vue/test-utils'
+import { mount, RouterLinkStub } from '@vue/test-utils'
 import { Quasar } from 'quasar'
 import { createPinia, setActivePinia, type Pinia } from 'pinia'
 import winterRaw from '../../data/examples/winter-week-lofoten.json?raw'
@@ -127,15 +127,17 @@ describe('the key figures', () => {
         progress: null,
         analysisError: null,
         prefs: { unitSystem: 'imperial', temperatureUnit: 'F' },
+        vehicleId: 'v1',
+        canWrite: true,
       },
-      global: { plugins: [[Quasar, {}], pinia] },
+      global: { plugins: [[Quasar, {}], pinia], stubs: { RouterLink: RouterLinkStub } },
     })
     expect(w.get('[data-test="figure-autonomy"]').text()).toMatch(/\d(\.\d)? days?/)
     expect(w.get('[data-test="figure-pack-needed"]').text()).toMatch(
       new RegExp(`${analysis.packNeeded.capacityAh} Ah`),
     )
     expect(w.get('[data-test="figure-pack-needed"]').text()).toContain('Yours: 200 Ah at 12.8 V')
-    expect(w.get('[data-test="figure-solar-needed"]').text()).toContain('400 Wp')
+    expect(w.get('[data-test="figure-solar-needed"]').text()).toContain('Yours: 400 Wp')
     expect(w.get('[data-test="figure-classic"]').text()).toMatch(/\d+ Ah\s*classic sizing/)
     expect(w.get('[data-test="classic-sentence"]').text().length).toBeGreaterThan(40)
     const cold = w.get('[data-test="figure-cold"]').text()

@@ -79,3 +79,68 @@ export function socLine(r: SimulationJson, label: string): SocLine {
     socFloorFraction: r.plan.battery.socFloorFraction,
   }
 }
+
+/** The trip's energy balance, as the Outlook explains it: in − used − pack losses = change in stored energy. */
+export interface EnergyBalance {
+  /** Used from every charge source (to the loads directly, or into the pack). [Wh] */
+  inWh: number
+  /** Served to everything that draws: appliances, the inverter's own draw, the BMS, the heater pad. [Wh] */
+  usedWh: number
+  /** Of the used energy: the inverter's idle draw and conversion loss. [Wh] */
+  inverterWh: number
+  /** Of the used energy: the BMS and monitor. [Wh] */
+  bmsWh: number
+  /** Of the used energy: the heater pad. [Wh] */
+  heaterWh: number
+  /** Lost in the pack: charging and discharging efficiency (and Peukert for lead-acid). [Wh] */
+  packLossWh: number
+  /** Stored at the end − stored at the start. [Wh] */
+  changeWh: number
+  /** Not counted as in: sun and charge the pack could not take (full, or at its charge limit). [Wh] */
+  curtailedWh: number
+  /** Not counted as in: charge lost while the cells were too cold or hot to charge. [Wh] */
+  chargeBlockedWh: number
+}
+
+/**
+ * Energy balance; no empirical model (shared/engine/battery/run.ts): every hour the sources' used energy
+ * goes to the loads or into the pack, what the pack gives goes to the loads, and the pack's conversion
+ * losses are the difference. So in − used − losses = change in stored energy, to the results' rounding.
+ */
+export function energyBalance(r: SimulationJson): EnergyBalance {
+  const e = r.summary.energyInWh
+  let inverterWh = 0
+  let bmsWh = 0
+  for (const d of r.days) {
+    inverterWh += d.outWh.inverter ?? 0
+    bmsWh += d.outWh.bms ?? 0
+  }
+  return {
+    inWh: e.solar + e.dcdc + e.shore + e.generator,
+    usedWh: r.summary.energyOutWh,
+    inverterWh,
+    bmsWh,
+    heaterWh: r.summary.heaterWh,
+    packLossWh: r.summary.packLossWh,
+    changeWh: r.totals.endStoredWh - r.totals.startStoredWh,
+    curtailedWh: r.summary.curtailedWh,
+    chargeBlockedWh: r.summary.chargeBlockedWh,
+  }
+}
+
+/** Everything that draws in one day: the appliances, the inverter's own draw, the BMS and the heater pad. */
+export interface DayLoads {
+  /** What they asked for. [Wh] */
+  askedWh: number
+  /** What they got. [Wh] */
+  servedWh: number
+  /** What was shed (asked − served): at the floor, too cold to discharge, or above the inverter's rating. [Wh] */
+  unservedWh: number
+  /** Of the served energy: the heater pad. [Wh] */
+  heaterWh: number
+}
+
+export function dayLoads(d: DailyEnergyRow & { unservedWh: number }): DayLoads {
+  const servedWh = loadsWh(d) + d.heaterWh
+  return { askedWh: servedWh + d.unservedWh, servedWh, unservedWh: d.unservedWh, heaterWh: d.heaterWh }
+}
