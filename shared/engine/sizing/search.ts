@@ -5,6 +5,11 @@ import type { PreparedTrip } from '../prepare.ts'
 import { runPack } from '../battery/run.ts'
 import { TIGHT_MARGIN_FRACTION } from '../margin.ts'
 
+/** A whole number with thousands separators for the reasons' words: 100000 → "100,000". */
+function grouped(n: number): string {
+  return String(n).replace(/\B(?=(\d{3})+(?!\d))/g, ',')
+}
+
 /** Autonomy may be longer than the trip: the trip's days are repeated up to this many days. */
 export const AUTONOMY_MAX_DAYS = 366
 
@@ -87,7 +92,7 @@ export function packNeeded(prep: PreparedTrip): PackNeededResult {
   }
   const bare = smallestPassing(ok, Math.max(1, b.capacityAh), PACK_MAX_AH)
   if (bare === null) {
-    const reason = `no pack up to ${PACK_MAX_AH} Ah keeps the loads running`
+    const reason = `no pack up to ${grouped(PACK_MAX_AH)} Ah keeps the loads running`
     return {
       capacityAh: null,
       reason,
@@ -126,7 +131,7 @@ export function packNeeded(prep: PreparedTrip): PackNeededResult {
     withMarginCapacityAh: withMargin,
     withMarginReason:
       withMargin === null
-        ? `no pack up to ${PACK_MAX_AH} Ah keeps ${Math.round(margin * 100)} SOC points above the floor`
+        ? `no pack up to ${grouped(PACK_MAX_AH)} Ah keeps ${Math.round(margin * 100)} SOC points above the floor`
         : null,
     marginFraction: margin,
     runs,
@@ -240,17 +245,17 @@ function whySolarFails(
   if (t.shortageWh > 1e-6) {
     const day = Math.floor(t.firstShortageHour / 24) + 1
     return {
-      reason: `even with ${SOLAR_MAX_SCALE_WP} Wp the ${Math.round(capacityAh)} Ah pack runs down to its floor in the hours without sun (first on day ${day}): the pack, not the array, is too small`,
+      reason: `even with ${grouped(SOLAR_MAX_SCALE_WP)} Wp the ${grouped(Math.round(capacityAh))} Ah pack runs down to its floor in the hours without sun (first on day ${day}): the pack, not the array, is too small`,
       packLimited: true,
     }
   }
   if (t.chargeBlockedColdH > 0)
     return {
-      reason: `charging is blocked by cold for ${t.chargeBlockedColdH} h even with ${SOLAR_MAX_SCALE_WP} Wp (a larger heater pad or better insulation would help)`,
+      reason: `charging is blocked by cold for ${t.chargeBlockedColdH} h even with ${grouped(SOLAR_MAX_SCALE_WP)} Wp (a larger heater pad or better insulation would help)`,
       packLimited: false,
     }
   return {
-    reason: `even ${SOLAR_MAX_SCALE_WP} Wp does not bring the pack back to full on the last day (the charge current limit or the lead-acid taper holds it back)`,
+    reason: `even ${grouped(SOLAR_MAX_SCALE_WP)} Wp does not bring the pack back to full on the last day (the charge current limit or the lead-acid taper holds it back)`,
     packLimited: false,
   }
 }
