@@ -10,7 +10,7 @@ import { Quasar } from 'quasar'
 import { createPinia } from 'pinia'
 import winterRaw from '../../data/examples/winter-week-lofoten.json?raw'
 import OutlookFigures from '../../src/components/outlook/OutlookFigures.vue'
-import { energyBalance } from '../../src/components/outlook/energy'
+import { dayLoads, energyBalance } from '../../src/components/outlook/energy'
 import { analysePlan, parsePlan, resultsToJson, type Plan } from '../../shared/engine/index'
 
 function winter(
@@ -60,7 +60,9 @@ describe('Pack needed and Solar needed', () => {
     const margin = pack.get('[data-test="pack-with-margin"]')
     expect(margin.get('.ow-figure__value').text()).toBe(`${need.withMarginCapacityAh} Ah`)
     expect(margin.get('.ow-figure__sub').text()).toBe('with 10 % to spare')
-    expect(pack.text()).toContain('at its lowest the charge just touches the floor (10 %): “with nothing to spare”')
+    expect(pack.text()).toContain(
+      'at its lowest the charge just touches the floor (10 %): “with nothing to spare”',
+    )
     expect(pack.text()).toContain(
       `${need.withMarginCapacityAh} Ah keeps 10 % of the pack above the floor, for a plain “Carries the trip”`,
     )
@@ -132,5 +134,20 @@ describe('energy over the trip', () => {
     // The shown terms add up to the shown change, to a watt-hour of rounding.
     const wh = (t: string) => Number(/([−+]?[\d,]+) Wh$/.exec(t)![1]!.replace(/,/g, '').replace('−', '-'))
     expect(Math.abs(wh(rows[0]!) - wh(rows[1]!) - wh(rows[2]!) - wh(rows[3]!))).toBeLessThanOrEqual(1)
+  })
+})
+
+describe('day by day loads', () => {
+  it('shows what was asked for beside what was served: a day that runs short asks for more than it gets', () => {
+    const { analysis } = mountFigures(winter())
+    const short = analysis.days.find((d) => d.unservedWh > 100)!
+    const l = dayLoads(short)
+    const served = Object.values(short.outWh).reduce((a, b) => a + b, 0)
+    expect(l.servedWh).toBeCloseTo(served, 6)
+    expect(l.askedWh).toBeCloseTo(served + short.unservedWh, 6)
+    expect(l.askedWh).toBeGreaterThan(l.servedWh + 100)
+    // A day that is carried asks for about what a short one does: the demand, not what happened to be served.
+    const carried = analysis.days.find((d) => d.unservedWh < 0.5)!
+    expect(Math.abs(dayLoads(carried).askedWh - l.askedWh)).toBeLessThan(0.5 * l.askedWh)
   })
 })
