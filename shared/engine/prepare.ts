@@ -288,3 +288,24 @@ export function prepareTrip(plan: ResolvedPlan): PreparedTrip {
     ...loadProfiles(plan),
   }
 }
+
+/** What prepareTrip reads of the battery bank (a test holds it to this list). */
+export const PREPARE_BATTERY_FIELDS = ['chargeVoltageV', 'bmsSelfConsumptionW'] as const
+
+let lastPrepared: { key: string; prep: PreparedTrip } | null = null
+
+/**
+ * prepareTrip, reusing the previous answer when only the battery bank changed in ways prepareTrip does not
+ * read (its size, mass, limits, heater…). "Try a change" moves the pack's capacity on every key press and each
+ * move used to rebuild the sun, load and charger series (about 1 ms of a 31-day move). One entry only; the
+ * key is the plan itself (as JSON) without the battery fields prepareTrip ignores, so any other change
+ * prepares anew. The series are shared, never written after preparation.
+ */
+export function prepareTripReusing(plan: ResolvedPlan): PreparedTrip {
+  const { battery, ...rest } = plan
+  const key = JSON.stringify([rest, PREPARE_BATTERY_FIELDS.map((f) => battery[f])])
+  if (lastPrepared?.key === key) return { ...lastPrepared.prep, plan }
+  const prep = prepareTrip(plan)
+  lastPrepared = { key, prep }
+  return prep
+}

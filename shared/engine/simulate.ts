@@ -5,7 +5,7 @@
  */
 import type { Plan } from '../schemas/plan.ts'
 import { fillPlanDefaults, type ResolvedPlan } from './presets.ts'
-import { prepareTrip, SOURCE_KINDS, type PreparedTrip, type SourceKind } from './prepare.ts'
+import { prepareTripReusing, SOURCE_KINDS, type PreparedTrip, type SourceKind } from './prepare.ts'
 import { runPack, type DayRow, type HourlySeries, type RunTotals } from './battery/run.ts'
 import {
   autonomy,
@@ -196,7 +196,7 @@ function simulatePrepared(prep: PreparedTrip): SimulationResult {
 /** One hourly run of a validated plan (see parsePlan). */
 export function simulate(plan: Plan, options: SimulateOptions = {}): SimulationResult {
   options.onProgress?.(0, 'prepare')
-  const prep = prepareTrip(fillPlanDefaults(plan))
+  const prep = prepareTripReusing(fillPlanDefaults(plan))
   options.onProgress?.(0.5, 'simulate')
   const result = simulatePrepared(prep)
   options.onProgress?.(1, 'done')
@@ -226,7 +226,7 @@ function classicFor(prep: PreparedTrip): ClassicSizingResult {
 export function analysePlan(plan: Plan, options: SimulateOptions = {}): Analysis {
   const progress = options.onProgress ?? (() => {})
   progress(0, 'prepare')
-  const prep = prepareTrip(fillPlanDefaults(plan))
+  const prep = prepareTripReusing(fillPlanDefaults(plan))
   progress(0.1, 'simulate')
   const sim = simulatePrepared(prep)
   progress(0.2, 'autonomy')
