@@ -159,4 +159,16 @@ describe('the key figures', () => {
     expect(rows.find((r) => r.key === 'days')!.best).toEqual([])
     expect(rows.find((r) => r.key === 'verdict')!.texts[0]).toMatch(/^Runs short/)
   })
+
+  it('explains energy in against energy used: in − used − lost in the pack = change in the pack', () => {
+    const winter = resultsToJson(analysePlan(example('winter-week-lofoten')))
+    const summer = resultsToJson(analysePlan(example('summer-month-andalusia')))
+    const rows = compareRows([winter, summer])
+    const v = (key: string) => rows.find((r) => r.key === key)!.values
+    for (const i of [0, 1])
+      expect(Math.abs(v('in')[i]! - v('out')[i]! - v('loss')[i]! - v('change')[i]!)).toBeLessThan(0.05)
+    // The winter week ends lower than it started, the summer month higher: signs shown.
+    expect(rows.find((r) => r.key === 'change')!.texts[0]).toMatch(/^−[\d,.]+ k?Wh$/)
+    expect(rows.find((r) => r.key === 'change')!.texts[1]).toMatch(/^\+[\d,.]+ k?Wh$/)
+  })
 })

@@ -126,6 +126,21 @@ export function compareRows(results: AnalysisJson[]): CompareRow[] {
       rs.map((r) => r.summary.energyOutWh),
       formatEnergy,
     ),
+    // In − used − lost in the pack = change in the pack (energy balance of the hourly run).
+    row(
+      'loss',
+      'Lost in the pack',
+      null,
+      rs.map((r) => r.summary.packLossWh),
+      formatEnergy,
+    ),
+    row(
+      'change',
+      'Change in the pack',
+      null,
+      rs.map((r) => r.totals.endStoredWh - r.totals.startStoredWh),
+      (v) => (v !== null && Math.round(v) > 0 ? `+${formatEnergy(v)}` : formatEnergy(v)),
+    ),
     row(
       'heater',
       'Heater pad',
