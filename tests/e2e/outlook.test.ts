@@ -76,6 +76,7 @@ describe('Outlook and Side by side in Chromium', { timeout: 240_000 }, () => {
   let browser: Browser
   let user: TestUser
   let winterId: string
+  let winterVehicleId: string
   let summerId: string
   let savedId: string | undefined
 
@@ -110,12 +111,12 @@ describe('Outlook and Side by side in Chromium', { timeout: 240_000 }, () => {
     browser = await launchBrowser()
     user = await createUser(server.ctx, { displayName: 'Ines Test' })
     const s = send(user.cookie)
-    winterId = (
-      await storePlan(s, examplePlan('winter-week-lofoten'), {
-        vehicle: 'Blue van',
-        scenario: 'Winter week, Lofoten',
-      })
-    ).scenarioId
+    const winter = await storePlan(s, examplePlan('winter-week-lofoten'), {
+      vehicle: 'Blue van',
+      scenario: 'Winter week, Lofoten',
+    })
+    winterId = winter.scenarioId
+    winterVehicleId = winter.vehicleId
     summerId = (
       await storePlan(s, examplePlan('summer-month-andalusia'), {
         vehicle: 'Blue van (summer kit)',
@@ -172,7 +173,34 @@ describe('Outlook and Side by side in Chromium', { timeout: 240_000 }, () => {
 
     // Every figure has its unit, the cold caution sits with the heater figures, charts have table alternatives.
     expect(await page.locator('[data-test="figure-autonomy"]').innerText()).toMatch(/days?|day/)
-    expect(await page.locator('[data-test="figure-solar-needed"]').innerText()).toMatch(/Wp/)
+    // Solar needed: a size for the winter van (the pack starts at 90 % and is back to full on the last day).
+    expect(await page.locator('[data-test="figure-solar-needed"] .ow-figure__value').innerText()).toMatch(
+      /^[\d,]+ Wp$/,
+    )
+    // Pack needed: the bare minimum and the pack with the verdict's margin, and the ways back to the vehicle.
+    const pack = page.locator('[data-test="figure-pack-needed"]')
+    expect(await pack.locator('[data-test="pack-with-margin"]').innerText()).toMatch(
+      /^[\d,]+ Ah\s+with 10 % to spare$/,
+    )
+    const vehicleId = winterVehicleId
+    expect(await page.locator('[data-test="change-battery"]').getAttribute('href')).toBe(
+      `/vehicles/${vehicleId}?section=battery`,
+    )
+    expect(await page.locator('[data-test="change-solar"]').getAttribute('href')).toBe(
+      `/vehicles/${vehicleId}?section=charging`,
+    )
+    expect(await page.locator('[data-test="trip-vehicle"]').getAttribute('href')).toBe(
+      `/vehicles/${vehicleId}`,
+    )
+
+    // At 1280 px, beside Try a change, the day-by-day and chemistry tables show every column without
+    // scrolling; the day-by-day table shows what the loads asked for beside what they got.
+    const wider = (sel: string) => page.locator(sel).evaluate((e) => e.scrollWidth - e.clientWidth)
+    expect(await wider('[data-test="daily-table"] .q-table__middle')).toBeLessThanOrEqual(4)
+    expect(await wider('[data-test="chemistry"] .ow-chem__box')).toBeLessThanOrEqual(0)
+    const heads = await page.locator('[data-test="daily-table"] thead th').allInnerTexts()
+    for (const h of ['In, Wh', 'Loads, Wh', 'asked', 'served', 'not served']) expect(heads).toContain(h)
+    expect(await page.locator('[data-test="chemistry"] thead th').allInnerTexts()).toHaveLength(5)
     expect(await page.locator('[data-test="figure-cold"] [data-test="cold-caution"]').innerText()).toMatch(
       /below freezing/,
     )
@@ -224,6 +252,40 @@ describe('Outlook and Side by side in Chromium', { timeout: 240_000 }, () => {
     // The stored original is unchanged.
     const original = await (await page.request.get(`${server.url}/api/scenarios/${winterId}/results`)).json()
     expect(original.results.verdict.status).toBe('short')
+    await context.close()
+  })
+
+  it('tries the Pack needed sizes from their buttons: the bare one has nothing to spare, the other carries, Pack needed stays', async () => {
+    const { page, context } = await signedInPage(VIEWPORTS.desktop)
+    await page.goto(`${server.url}/scenarios/${winterId}/outlook`)
+    const verdict = page.locator('[data-test="verdict"]')
+    await verdict.waitFor({ timeout: 60_000 })
+    const value = page.locator('[data-test="figure-pack-needed"] .ow-figure__value').first()
+    await expect.poll(() => value.innerText(), { timeout: 60_000 }).toMatch(/^[\d,]+ Ah$/)
+    const bare = await value.innerText()
+    const margin = (await page.locator('[data-test="pack-with-margin"] .ow-figure__value').innerText()).trim()
+    const capacity = page.locator('input[data-test="try-capacity-input"]')
+
+    await page.locator('[data-test="try-pack-needed"]').click()
+    await expect.poll(() => capacity.inputValue()).toBe(bare.replace(/[^\d]/g, ''))
+    await expect.poll(() => verdict.getAttribute('data-status')).toBe('tight')
+    expect(await page.locator('[data-test="verdict-headline"]').innerText()).toBe(
+      'Carries the trip, with nothing to spare',
+    )
+    await page.locator('[data-test="try-pack-margin"]').click()
+    await expect.poll(() => capacity.inputValue()).toBe(margin.replace(/[^\d]/g, ''))
+    await expect.poll(() => verdict.getAttribute('data-status')).toBe('carries')
+    expect(await page.locator('[data-test="verdict-headline"]').innerText()).toMatch(
+      /^Carries the trip with 1\d % to spare$/,
+    )
+    // The sizing searches ran again for the tried pack: the same answers, whatever capacity is tried.
+    await expect
+      .poll(() => page.locator('[data-test="download-json"]').isEnabled(), { timeout: 60_000 })
+      .toBe(true)
+    expect(await value.innerText()).toBe(bare)
+    expect((await page.locator('[data-test="pack-with-margin"] .ow-figure__value').innerText()).trim()).toBe(
+      margin,
+    )
     await context.close()
   })
 
@@ -306,6 +368,20 @@ describe('Outlook and Side by side in Chromium', { timeout: 240_000 }, () => {
     await page.locator('[data-test="compare-table"]').waitFor({ timeout: 60_000 })
     await page.waitForTimeout(300)
     await screenshot(page, 'compare-phone')
+    await page.screenshot({ path: `${dir}/compare-phone-top.png` })
+    // Two trips side by side without sideways scrolling: each figure's name above the two values.
+    const box = page.locator('[data-test="compare-table"] [role="region"]')
+    expect(await box.evaluate((e) => e.scrollWidth - e.clientWidth)).toBeLessThanOrEqual(0)
+    expect(await page.locator('[data-test="compare-scroll-hint"]').count()).toBe(0)
+    const lowest = page.locator('[data-test="cmp-lowest"]')
+    const [label, first, second] = await Promise.all([
+      lowest.locator('th').boundingBox(),
+      lowest.locator('td').nth(0).boundingBox(),
+      lowest.locator('td').nth(1).boundingBox(),
+    ])
+    expect(first!.y).toBeGreaterThan(label!.y + label!.height - 1)
+    expect(second!.x + second!.width).toBeLessThanOrEqual(360)
+    expect(Math.abs(second!.y - first!.y)).toBeLessThan(2)
     const overflow2 = await page.evaluate(() => document.documentElement.scrollWidth - window.innerWidth)
     if (overflow2 > 0) console.error('[overflow]', await wideElements(page))
     expect(overflow2).toBeLessThanOrEqual(0)

@@ -3,7 +3,8 @@
  * scenarios (a winter week in Lofoten, a summer month near Granada). The planner goes from the Scenarios list
  * to the winter Outlook, opens Side by side from there, adds the summer trip in the picker, and reads both
  * state-of-charge curves, energy in and out, heater energy and autonomy. The selection is in the URL; a crew
- * member who opens that link sees the same comparison; someone outside the crew sees neither trip.
+ * member who opens that link sees the same comparison, readable on a phone; someone outside the crew sees
+ * neither trip, only that the link's scenarios are not shared with them and whom to ask.
  * Screenshots go to artifacts/.
  */
 import { describe, it, expect, beforeAll, afterAll } from 'vitest'
@@ -200,7 +201,21 @@ describe('trip planner story', { timeout: 300_000 }, () => {
     await page.goto(shared)
     const crewSees = await keyFigures(page)
     expect(crewSees).toEqual(plannerSees)
-    expect(await page.locator('[data-test="compare-soc"] canvas').count()).toBe(1)
+    // Both trips side by side on a 360 px screen, no sideways scrolling: each figure's name above its values.
+    const box = page.locator('[data-test="compare-table"] [role="region"]')
+    expect(await box.evaluate((e) => e.scrollWidth - e.clientWidth)).toBeLessThanOrEqual(0)
+    const heads = page.locator('[data-test="compare-table"] thead th a')
+    for (const h of await heads.all())
+      expect((await h.boundingBox())!.x + (await h.boundingBox())!.width).toBeLessThanOrEqual(360)
+    // On a phone the curves start one chart per trip (overlaid, the line styles blur at this size); one tap
+    // overlays them, with a legend naming each line style.
+    const soc = page.locator('[data-test="compare-soc"]')
+    expect(await soc.locator('canvas').count()).toBe(2)
+    await soc.locator('[data-test="compare-soc-overlaid"]').click()
+    await expect.poll(() => soc.locator('canvas').count()).toBe(1)
+    const legend = await soc.locator('[data-test="compare-soc-legend"] li').allInnerTexts()
+    expect(legend[0]).toMatch(new RegExp(`^${WINTER} · solid line, lowest \\d+ %$`))
+    expect(legend[1]).toMatch(new RegExp(`^${SUMMER} · dashed line, lowest \\d+ %$`))
     expect(await page.locator('[data-test="compare-daily"] canvas').count()).toBe(2)
     await settled(page)
     await screenshot(page, 'story-planner-2-crew-phone')
@@ -217,6 +232,16 @@ describe('trip planner story', { timeout: 300_000 }, () => {
     const body = await page.locator('main, .q-page').first().innerText()
     expect(body).not.toContain(WINTER)
     expect(body).not.toContain(SUMMER)
+    // The chips name what the two are to this person, never their raw ids; one message says why and whom to ask.
+    const picker = page.locator('.q-field', { has: page.locator('[data-test="compare-picker"]') })
+    expect(await picker.locator('.q-chip').count()).toBe(2)
+    expect(await picker.locator('.q-chip', { hasText: 'Not shared with you' }).count()).toBe(2)
+    expect(body).not.toContain(winterId)
+    expect(body).not.toContain(summerId)
+    expect(await page.locator('[role="alert"]').count()).toBe(1)
+    expect(await page.locator('[role="alert"]').innerText()).toMatch(
+      /You cannot open 2 scenarios in this link\.\s+They do not exist, or they are not shared with you: on a vehicle whose crew you are not on\. Ask the person who sent the link to add you to that vehicle's crew/,
+    )
     await settled(page)
     await screenshot(page, 'story-planner-3-outsider')
     await context.close()
