@@ -6,7 +6,7 @@ import { PREPARE_BATTERY_FIELDS, prepareTrip, prepareTripReusing } from './prepa
 import { resultsToJson, simulate } from './index.ts'
 
 const plan = (): Plan => {
-  const p = parsePlan(structuredClone(winterWeek))
+  const p = parsePlan(JSON.parse(JSON.stringify(winterWeek)))
   if (!p.ok) throw new Error(JSON.stringify(p.fields))
   return p.plan
 }
