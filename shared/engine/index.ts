@@ -52,7 +52,7 @@ export type {
   VerdictStatus,
   SimulateOptions,
 } from './simulate.ts'
-export { resultsToJson } from './results.ts'
+export { resultsToJson, tripMoment } from './results.ts'
 export type { Jsonified } from './results.ts'
 export { prepareTrip, LOAD_CATEGORIES, SOURCE_KINDS } from './prepare.ts'
 export type { PreparedTrip, LoadCategory, SourceKind } from './prepare.ts'

@@ -1,5 +1,5 @@
 import { describe, expect, it } from 'vitest'
-import { resultsToJson, roundFigure } from './results.ts'
+import { resultsToJson, roundFigure, tripMoment } from './results.ts'
 
 // The JSON form's rounding rule is our own (shared/engine/results.ts): fractions to 1e-6, other figures to a
 // thousandth of their unit, the echoed plan untouched.
@@ -30,5 +30,14 @@ describe('resultsToJson', () => {
     expect(json.bad).toBeNull()
     expect(Object.is(json.tinyW, 0)).toBe(true)
     expect(roundFigure(Number.POSITIVE_INFINITY, 1e3)).toBeNull()
+  })
+})
+
+describe('tripMoment', () => {
+  // Our own rule (shared/engine/results.ts): a clock time names the end of an hour of the run.
+  it('names the end of the hour; the last hour of a day ends at 24:00 of that day', () => {
+    expect(tripMoment(0)).toBe('day 1 at 01:00')
+    expect(tripMoment(77)).toBe('day 4 at 06:00')
+    expect(tripMoment(7 * 24 - 1)).toBe('day 7 at 24:00')
   })
 })

@@ -67,3 +67,15 @@ function structuredCopy(value: unknown): unknown {
 export function resultsToJson<T>(result: T): Jsonified<T> {
   return convert(result, FIGURE_SCALE) as Jsonified<T>
 }
+
+/**
+ * A moment of the hourly run in words, for every screen and the report: clock times name the END of an hour.
+ * Hour i covers [i, i+1) from local midnight of day 1; its state of charge is taken at its end, and a
+ * shortfall in it has happened by then. So hour 77 is "day 4 at 06:00" (05:00–06:00 of day 4), and the last
+ * hour of a day ends at 24:00 of that day ("day 7 at 24:00"), never at 00:00 of a day after the trip.
+ */
+export function tripMoment(hourIndex: number): string {
+  const day = Math.floor(hourIndex / 24) + 1
+  const clock = String((hourIndex % 24) + 1).padStart(2, '0')
+  return `day ${day} at ${clock}:00`
+}

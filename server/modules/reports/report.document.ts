@@ -5,6 +5,8 @@
  * charts, daily table, equipment, build sheet with its cautions, and the advisor's notes.
  */
 import type { Analysis, Jsonified, Plan } from '../../../shared/engine/index'
+import { tripMoment } from '../../../shared/engine/results'
+import { TIGHT_MARGIN_FRACTION } from '../../../shared/engine/margin'
 import type { BuildSheet } from '../../../shared/buildsheet/index'
 import { dailyEnergySvg, socChartSvg, SERIES_COLOURS, SOURCE_LABELS } from './charts'
 
@@ -61,8 +63,8 @@ const pct = (x: number | null | undefined) => (x === null || x === undefined ? '
 const energy = (wh: number | null | undefined) =>
   wh === null || wh === undefined ? '—' : Math.abs(wh) >= 1000 ? `${num(wh / 1000, 2)} kWh` : `${num(wh)} Wh`
 const tempC = (c: number | null | undefined) => `${num(c, 0)} °C`
-const moment = (hourIndex: number) =>
-  `day ${Math.floor(hourIndex / 24) + 1} at ${String(hourIndex % 24).padStart(2, '0')}:00`
+/** Clock times name the end of an hour of the run, as on the Outlook (shared/engine/results.ts). */
+const moment = tripMoment
 
 const CATEGORY_LABELS: Record<string, string> = {
   fridge: 'Fridge',
@@ -98,7 +100,7 @@ export function verdictHeadline(r: Results): {
 } {
   const s = r.summary
   const floor = r.plan.battery.socFloorFraction
-  const lowest = s.lowestSocHour >= 0 ? ` on ${moment(s.lowestSocHour + 1)}` : ''
+  const lowest = s.lowestSocHour >= 0 ? ` on ${moment(s.lowestSocHour)}` : ''
   const detail = `Lowest charge ${pct(s.lowestSocFraction)}${lowest}; the floor is ${pct(floor)}.`
   if (r.verdict.status === 'short') {
     const first = r.totals.firstShortageHour
@@ -286,7 +288,7 @@ export function buildReportDocument(input: ReportInput): Record<string, unknown>
             figure(
               'Lowest state of charge',
               pct(s.lowestSocFraction),
-              s.lowestSocHour >= 0 ? `on ${moment(s.lowestSocHour + 1)}` : '',
+              s.lowestSocHour >= 0 ? `on ${moment(s.lowestSocHour)}` : '',
             ),
             figure(
               'State of charge at the end',
@@ -309,12 +311,20 @@ export function buildReportDocument(input: ReportInput): Record<string, unknown>
             figure(
               'Pack needed',
               r.packNeeded.capacityAh === null ? 'not reachable' : `${num(r.packNeeded.capacityAh)} Ah`,
-              `this pack: ${num(b.capacityAh)} Ah`,
+              `the bare minimum (charge just touches the floor); ${
+                r.packNeeded.withMarginCapacityAh === null
+                  ? ''
+                  : `${num(r.packNeeded.withMarginCapacityAh)} Ah with ${pct(TIGHT_MARGIN_FRACTION)} to spare; `
+              }this pack: ${num(b.capacityAh)} Ah`,
             ),
             figure(
               'Solar needed',
               r.solarNeeded.peakPowerWp === null ? 'not reachable' : `${num(r.solarNeeded.peakPowerWp)} Wp`,
-              'to end the trip no lower than it started',
+              `no load shed, and the pack back to full on the last day or no lower than it started${
+                r.solarNeeded.ownPackReason
+                  ? `; for a pack of ${num(r.solarNeeded.capacityAh)} Ah (Pack needed)`
+                  : ''
+              }`,
             ),
             figure(
               'Classic sizing method',

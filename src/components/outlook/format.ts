@@ -6,6 +6,7 @@
  * same units. Temperature follows the °C/°F preference; mass follows metric/imperial.
  */
 import type { UnitPrefs } from '../../composables/displayUnits'
+import { tripMoment } from '@shared/engine/results'
 
 const MINUS = '\u2212'
 const LB_PER_KG = 1 / 0.45359237 // international avoirdupois pound, exact by definition (1959)
@@ -99,17 +100,8 @@ export function formatMass(kg: number | null | undefined, prefs: UnitPrefs): str
   return `${formatNumber(kg)} kg`
 }
 
-/**
- * Clock times on every Outlook screen name the END of an hour of the hourly run. Hour i covers [i, i+1) from
- * local midnight of day 1; its state of charge is taken at its end, and a shortfall in it has happened by
- * then. So "day 4 at 06:00" is the hour from 05:00 to 06:00 of day 4, and the last hour of a day ends at
- * 24:00 of that day ("day 7 at 24:00"), never at 00:00 of a day after the trip.
- */
-export function formatTripMoment(hourIndex: number): string {
-  const day = Math.floor(hourIndex / 24) + 1
-  const clock = String((hourIndex % 24) + 1).padStart(2, '0')
-  return `day ${day} at ${clock}:00`
-}
+/** "day 4 at 06:00": the end of an hour of the run (shared/engine/results.ts `tripMoment`, also the report's). */
+export const formatTripMoment = tripMoment
 
 /** The hour itself, for tables: "Day 4, 05:00–06:00" (the last one of a day ends at 24:00). */
 export function formatTripHour(hourIndex: number): string {
