@@ -1,5 +1,6 @@
 // @vitest-environment happy-dom
 import { describe, expect, it } from 'vitest'
+import { tripInstant } from '../../src/components/chart/chartSetup'
 import {
   formatAh,
   formatDays,
@@ -107,5 +108,13 @@ describe('key-figure formatting', () => {
       'day 7',
       'end',
     ])
+  })
+})
+
+describe('tripInstant (chart tooltips)', () => {
+  it('names an instant as the end of the hour before it', () => {
+    expect(tripInstant(0)).toBe('day 1 at 00:00')
+    expect(tripInstant(6)).toBe('day 1 at 06:00')
+    expect(tripInstant(7 * 24)).toBe('day 7 at 24:00')
   })
 })

@@ -16,6 +16,7 @@ import {
   Tooltip,
   type Plugin,
 } from 'chart.js'
+import { tripMoment } from '@shared/engine/results'
 
 Chart.register(
   BarController,
@@ -123,6 +124,14 @@ export function hourRanges(n: number, test: (i: number) => boolean): [number, nu
     }
   }
   return out
+}
+
+/**
+ * An instant of the trip for a tooltip, `h` hours after local midnight of day 1: the end of hour h − 1 in the
+ * Outlook's words ("day 7 at 24:00" rather than "day 8, 00:00"); the trip's first instant is day 1 at 00:00.
+ */
+export function tripInstant(h: number): string {
+  return h <= 0 ? 'day 1 at 00:00' : tripMoment(h - 1)
 }
 
 /** Tick spacing of the day axis: every day up to two weeks, then weekly, then monthly. [day] */
