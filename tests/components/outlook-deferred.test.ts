@@ -155,6 +155,33 @@ describe('mergeDatasets (charts updated in place)', () => {
     expect(limit.label).toBe('Lowest charging temperature (32 °F)')
   })
 
+  it('with inPlace (parsing: false charts), writes new {x, y} values into the points the chart holds', () => {
+    const points = [
+      { x: 0, y: 90 },
+      { x: 1, y: 80 },
+    ]
+    const soc: AnyDataset = { label: 'State of charge', data: points }
+    const next = [
+      { x: 0, y: 95 },
+      { x: 1, y: 70 },
+    ]
+    const [merged] = mergeDatasets([soc], [{ label: 'State of charge', data: next }], { inPlace: true })
+    expect(merged).toBe(soc)
+    expect(soc.data).toBe(points) // same array and point objects, new values
+    expect(points[1]).toEqual({ x: 1, y: 70 })
+    // A different length takes the new array as it is; without inPlace the new array is always taken.
+    const longer = [...next, { x: 2, y: 60 }]
+    mergeDatasets([soc], [{ label: 'State of charge', data: longer }], { inPlace: true })
+    expect(soc.data).toBe(longer)
+    const plain = [
+      { x: 0, y: 1 },
+      { x: 1, y: 2 },
+      { x: 2, y: 3 },
+    ]
+    mergeDatasets([soc], [{ label: 'State of charge', data: plain }])
+    expect(soc.data).toBe(plain)
+  })
+
   it('prefers a label match over a position match', () => {
     const pack: AnyDataset = { label: 'Pack', data: [1] }
     const air: AnyDataset = { label: 'Outside air', data: [2] }
