@@ -134,6 +134,21 @@ export function tripInstant(h: number): string {
   return h <= 0 ? 'day 1 at 00:00' : tripMoment(h - 1)
 }
 
+/**
+ * What every hourly line chart shares: sized by its box, no animation, points given as {x, y} already (no
+ * parsing; points are updated in place, useChart.ts), and tooltips for the nearest hour.
+ */
+export function hourlyLineBase() {
+  return {
+    responsive: true,
+    maintainAspectRatio: false,
+    animation: false as const,
+    parsing: false as const,
+    normalized: true,
+    interaction: { mode: 'nearest' as const, axis: 'x' as const, intersect: false },
+  }
+}
+
 /** Tick spacing of the day axis: every day up to two weeks, then weekly, then monthly. [day] */
 function dayStep(days: number): number {
   return days > 60 ? 30 : days > 14 ? 7 : 1
