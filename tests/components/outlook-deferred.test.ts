@@ -234,3 +234,32 @@ describe('sameData (a chart is not redrawn for the same figures)', () => {
     expect(sameData([undefined], [null])).toBe(false)
   })
 })
+
+describe('WhenVisible (a costly part of the Outlook gets a copy of its value that waits off screen)', () => {
+  beforeEach(() => {
+    vi.useFakeTimers()
+    vi.stubGlobal('IntersectionObserver', FakeObserver)
+  })
+  afterEach(() => {
+    vi.useRealTimers()
+    vi.unstubAllGlobals()
+  })
+
+  it('hands its slot the value at once on screen, the latest one later off screen', async () => {
+    const { default: WhenVisible } = await import('../../src/components/common/WhenVisible.vue')
+    const w = mount(WhenVisible as never, {
+      props: { value: 1 },
+      slots: { default: ({ value }: { value: number }) => `v${value}` },
+      attachTo: document.body,
+    })
+    await w.setProps({ value: 2 } as never)
+    expect(w.text()).toBe('v2')
+    report(w, false)
+    await w.setProps({ value: 3 } as never)
+    expect(w.text()).toBe('v2')
+    report(w, true)
+    await nextTick()
+    expect(w.text()).toBe('v3')
+    w.unmount()
+  })
+})
