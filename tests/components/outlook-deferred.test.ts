@@ -247,11 +247,13 @@ describe('WhenVisible (a costly part of the Outlook gets a copy of its value tha
 
   it('hands its slot the value at once on screen, the latest one later off screen', async () => {
     const { default: WhenVisible } = await import('../../src/components/common/WhenVisible.vue')
-    const w = mount(WhenVisible as never, {
+    const options = {
       props: { value: 1 },
       slots: { default: ({ value }: { value: number }) => `v${value}` },
       attachTo: document.body,
-    })
+    }
+    // A generic component (<script setup generic="T">): mounted as a plain one with a number for T.
+    const w = mount(WhenVisible as unknown as Parameters<typeof mount>[0], options as never)
     await w.setProps({ value: 2 } as never)
     expect(w.text()).toBe('v2')
     report(w, false)
