@@ -111,6 +111,34 @@ export const bandsPlugin: Plugin = {
   },
 }
 
+/**
+ * Legend labels that show what is drawn: each line as one stroke with its dataset's dash pattern (a filled box
+ * hides the dashes, and a box of no height strokes its top and bottom edges over each other, which fills the
+ * gaps in); a dataset without points (the key to bands a plugin draws) as a strip of its fill.
+ */
+export function lineLegendLabels() {
+  return {
+    usePointStyle: true,
+    pointStyle: 'line' as const,
+    pointStyleWidth: 32,
+    generateLabels: (chart: Chart) =>
+      Chart.defaults.plugins.legend.labels.generateLabels(chart).map((l) => {
+        const ds = chart.data.datasets[l.datasetIndex ?? 0] as
+          { data?: unknown[]; borderDash?: number[]; borderColor?: unknown } | undefined
+        if (ds && Array.isArray(ds.data) && ds.data.length === 0)
+          return { ...l, pointStyle: 'rect' as const, lineDash: [], lineWidth: 1 }
+        return {
+          ...l,
+          pointStyle: 'line' as const,
+          lineDash: ds?.borderDash ?? [],
+          strokeStyle: (ds?.borderColor as string | undefined) ?? l.strokeStyle,
+          fillStyle: 'rgba(0, 0, 0, 0)',
+          lineWidth: 2,
+        }
+      }),
+  }
+}
+
 /** Points per stroke of a long line drawn by runsPlugin. */
 export const RUN_POINTS = 32
 
