@@ -5,6 +5,7 @@ import { testContext, uniq } from '../support/context'
 import { createUser, type TestUser } from '../support/factories'
 import { analysePlan, parsePlan, resultsToJson } from '../../shared/engine/index'
 import { clearResultsCache } from '../../server/modules/results/results.service'
+import { loadPlanDigestForReader } from '../../server/modules/scenarios/plan'
 import { examplePlan, storePlan, type Send } from './results.fixture'
 
 const ctx = testContext()
@@ -176,5 +177,61 @@ describe('GET /api/scenarios/:scenarioId/results', () => {
     expect(resB.body.results.plan.appliances).toHaveLength(1)
     expect(resA.body.results.plan.name).toContain('Week A')
     expect(resB.body.results.plan.name).toContain('Week B')
+  })
+  it('keys its memo by a revision that every kind of edit to the plan’s rows changes, and nothing else', async () => {
+    // The revision hashes the xmin of each row the plan is made of (server/modules/scenarios/plan.ts): each
+    // edit below, made straight in the database as any writer would, must give a new one, and the results
+    // must follow the edit.
+    const s = sender(owner)
+    const w = await storePlan(s, examplePlan('winter-week-lofoten'), {
+      vehicle: `Rev ${uniq()}`,
+      scenario: 'Rev',
+    })
+    const revision = async () => (await loadPlanDigestForReader(ctx.db, owner.id, w.scenarioId)).digest
+    const seen = new Set<string>([await revision()])
+    expect(await revision()).toBe([...seen][0]) // the same rows: the same revision
+    const q = (text: string, values: unknown[]) => ctx.pool.query(text, values)
+    const one = async (table: string) =>
+      (await q(`SELECT id FROM ${table} WHERE vehicle_id = $1 ORDER BY seq LIMIT 1`, [w.vehicleId])).rows[0]!
+        .id
+    const edits: [string, () => Promise<unknown>][] = [
+      ['the scenario', () => q(`UPDATE scenarios SET name = name || '.' WHERE id = $1`, [w.scenarioId])],
+      ['the vehicle', () => q(`UPDATE vehicles SET name = name || '.' WHERE id = $1`, [w.vehicleId])],
+      [
+        'the battery bank',
+        () =>
+          q(
+            `UPDATE battery_banks SET params = jsonb_set(params, '{cellsParallel}', '2') WHERE vehicle_id = $1`,
+            [w.vehicleId],
+          ),
+      ],
+      [
+        'an appliance',
+        async () => q(`UPDATE appliances SET params = params WHERE id = $1`, [await one('appliances')]),
+      ],
+      [
+        'a charge source',
+        async () =>
+          q(`UPDATE charge_sources SET params = params WHERE id = $1`, [await one('charge_sources')]),
+      ],
+      [
+        'a removed charge source',
+        async () => q(`DELETE FROM charge_sources WHERE id = $1`, [await one('charge_sources')]),
+      ],
+      [
+        'a removed appliance',
+        async () => q(`DELETE FROM appliances WHERE id = $1`, [await one('appliances')]),
+      ],
+    ]
+    for (const [what, edit] of edits) {
+      await edit()
+      const now = await revision()
+      expect(seen.has(now), `after an edit of ${what}`).toBe(false)
+      seen.add(now)
+    }
+    const res = await s('GET', `/api/scenarios/${w.scenarioId}/results`)
+    expect(res.status).toBe(200)
+    expect(res.body.results.plan.battery.cellsParallel).toBe(2)
+    expect(res.body.results.plan.name).toContain('Rev.')
   })
 })

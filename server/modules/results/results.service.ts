@@ -5,9 +5,9 @@
  *
  * Results depend only on the plan, so they are memoised by a hash of the plan's JSON (a small LRU):
  * opening an Outlook, a Side by side page and the API bench hit the same few plans again and again, and an
- * edit to the vehicle or scenario changes the plan and so the key. A second memo maps a scenario and the digest
- * of its plan snapshot (which PostgreSQL computes, server/modules/scenarios/plan.ts) to the answer, so a
- * repeated request skips reading, assembling, validating and hashing the plan as well.
+ * edit to the vehicle or scenario changes the plan and so the key. A second memo maps a scenario and the revision
+ * of the rows its plan is made of (a hash of their xmin, which PostgreSQL computes: server/modules/scenarios/
+ * plan.ts) to the answer, so a repeated request skips reading, assembling, validating and hashing the plan.
  */
 import { createHash } from 'node:crypto'
 import { gzipSync } from 'node:zlib'
@@ -74,11 +74,11 @@ interface MemoEntry {
   body: string
   gzip: Buffer | null
 }
-/** Results answers by scenario and plan-snapshot digest (server/modules/scenarios/plan.ts). */
+/** Results answers by scenario and plan revision (server/modules/scenarios/plan.ts). */
 const byDigest = new Map<string, MemoEntry>()
 
 /**
- * The results of a scenario whose plan snapshot has this digest: from the memo when this scenario's plan was
+ * The results of a scenario whose plan rows have this revision (`digest`): from the memo when this scenario's plan was
  * seen as it is now, else through `loadPlan` (which throws for an incomplete plan; nothing is memoised then)
  * and `resultsForPlan`. The memoised answer keeps its body text and, once asked for, its gzip form, so a
  * repeated request neither reads, assembles, validates, hashes or serialises the plan and results, nor

@@ -3,7 +3,6 @@
  * appliance inventory (with this scenario's usage), charge sources and inverter, plus the scenario's trip.
  * Used by GET /api/scenarios/:scenarioId/plan, and by reports and stored results.
  */
-import { createHash } from 'node:crypto'
 import { eq, sql, type SQL } from 'drizzle-orm'
 import {
   applyScenarioUsage,
@@ -35,7 +34,7 @@ export const planIncomplete = (fields: Record<string, string[]>) =>
 /**
  * Everything a scenario's plan is made of — the scenario, its vehicle's name, battery bank, inverter,
  * appliances and charge sources in their list order, and this scenario's usage — as one JSON text from one
- * query. Its digest is what the results memo is keyed by: any edit to any of these changes it.
+ * query. The results memo is keyed by the revision of these rows (revisionSql below), not by this text.
  * Column names are written out with their table: inside the subqueries a bare `vehicle_id` would be theirs.
  */
 const snapshot = sql<string>`json_build_object(
@@ -101,15 +100,31 @@ const openReviewStates: SQL = sql.join(
   sql`, `,
 )
 
-/** SHA-256 (hex) of a snapshot's text as PostgreSQL computes it; `snapshotDigest` gives the same in Node. */
-const digestSql = sql<string>`encode(sha256(convert_to(${snapshot}, 'UTF8')), 'hex')`
-
-export const snapshotDigest = (text: string): string =>
-  createHash('sha256').update(text, 'utf8').digest('hex')
+/**
+ * The revision of everything a scenario's plan is made of, hashed (SHA-256, hex): each contributing row's
+ * `xmin`, the id of the transaction that wrote that version of the row. PostgreSQL gives every inserted or
+ * updated row version a new one and a deleted row leaves its list, so any edit to the scenario, its vehicle,
+ * battery bank, inverter, appliances, charge sources or usage changes the revision, as a hash of their content
+ * would, without assembling the ~6 kB snapshot on every request (bench:api). Every part is tagged, so a
+ * missing inverter cannot be taken for a missing battery bank. It keys the results memo: an unrelated edit of
+ * one of these rows only costs a recomputation.
+ */
+const revisionSql = sql<string>`encode(sha256(convert_to(concat_ws('|',
+  's' || scenarios.xmin::text,
+  'v' || COALESCE((SELECT v.xmin::text FROM vehicles v WHERE v.id = scenarios.vehicle_id), '-'),
+  'b' || COALESCE((SELECT b.xmin::text FROM battery_banks b WHERE b.vehicle_id = scenarios.vehicle_id), '-'),
+  'i' || COALESCE((SELECT i.xmin::text FROM inverters i WHERE i.vehicle_id = scenarios.vehicle_id), '-'),
+  'a' || COALESCE((SELECT string_agg(a.id::text || ':' || a.xmin::text, ',' ORDER BY a.id)
+    FROM appliances a WHERE a.vehicle_id = scenarios.vehicle_id), '-'),
+  'c' || COALESCE((SELECT string_agg(c.id::text || ':' || c.xmin::text, ',' ORDER BY c.id)
+    FROM charge_sources c WHERE c.vehicle_id = scenarios.vehicle_id), '-'),
+  'u' || COALESCE((SELECT string_agg(u.appliance_id::text || ':' || u.xmin::text, ',' ORDER BY u.appliance_id)
+    FROM scenario_appliance_usage u WHERE u.scenario_id = scenarios.id), '-')
+), 'UTF8')), 'hex')`
 
 /**
- * The user's role on the scenario's vehicle (a member's, or an open review's advisor) and the digest of the
- * scenario's plan snapshot: enough to serve memoised results without moving the snapshot itself (~6 kB).
+ * The user's role on the scenario's vehicle (a member's, or an open review's advisor) and the revision of the
+ * rows its plan is made of: enough to serve memoised results without assembling or moving the plan (~6 kB).
  */
 const digestForUser = preparedFor((db) =>
   db
@@ -119,7 +134,7 @@ const digestForUser = preparedFor((db) =>
         WHERE m.vehicle_id = scenarios.vehicle_id AND m.user_id = ${sql.placeholder('userId')})`,
       openReview: sql<boolean>`EXISTS (SELECT 1 FROM reviews r WHERE r.vehicle_id = scenarios.vehicle_id
         AND r.advisor_id = ${sql.placeholder('userId')} AND r.state::text IN (${openReviewStates}))`,
-      digest: digestSql,
+      digest: revisionSql,
     })
     .from(scenarios)
     .where(eq(scenarios.id, sql.placeholder('scenarioId')))
@@ -128,7 +143,7 @@ const digestForUser = preparedFor((db) =>
 )
 
 /**
- * For read-only views of a scenario's plan (results): the digest of the plan's snapshot if the user may read
+ * For read-only views of a scenario's plan (results): the revision of the plan's rows if the user may read
  * the scenario, in one prepared query. 404 when the scenario does not exist or the user is not on its vehicle,
  * exactly as `loadScenarioForUser(…, 'read')` answers.
  */
@@ -144,15 +159,22 @@ export async function loadPlanDigestForReader(
   return { scenarioId: row.scenarioId, role, digest: row.digest }
 }
 
-/** The scenario's plan and the digest of the snapshot it was built from (no access check: see above). */
+/**
+ * The scenario's plan and the revision of the rows it was built from, read together (one query, one
+ * snapshot of the database), so the two always belong together. No access check: see above.
+ */
 export async function loadPlanWithDigest(
   db: Db,
   scenarioId: string,
 ): Promise<{ plan: Plan; digest: string }> {
   if (!isId(scenarioId)) throw notFound('That scenario')
-  const [row] = await db.select({ snapshot }).from(scenarios).where(eq(scenarios.id, scenarioId)).limit(1)
+  const [row] = await db
+    .select({ snapshot, digest: revisionSql })
+    .from(scenarios)
+    .where(eq(scenarios.id, scenarioId))
+    .limit(1)
   if (!row) throw notFound('That scenario')
-  return { plan: planFromSnapshot(row.snapshot), digest: snapshotDigest(row.snapshot) }
+  return { plan: planFromSnapshot(row.snapshot), digest: row.digest }
 }
 
 /** `appliances.3.supply` → `appliances.<id>.supply`, so the client can point at the record itself. */
