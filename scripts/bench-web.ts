@@ -14,6 +14,7 @@ import { join } from 'node:path'
 import { ROOT } from './lib/paths'
 import { startDatabase, startServerProcess } from './lib/harness'
 import { launchBrowser } from '../tests/support/browser'
+import { ensureChromium } from './lib/chromium'
 
 const dist = join(ROOT, 'dist')
 const build = spawnSync('npx', ['vite', 'build', '--logLevel', 'warn'], { cwd: ROOT, stdio: 'inherit' })
@@ -33,6 +34,7 @@ console.log(
   `initial JS (gzip -9): ${initialJsGzipKB} KB in ${initial.length} files; largest lazy chunk ${largestChunk?.f} ${largestChunk?.kb} KB`,
 )
 
+ensureChromium()
 const stack = await startDatabase({ seed: true })
 const server = await startServerProcess(stack.dbUrl, { OHMWARD_CLIENT_DIR: dist })
 const browser = await launchBrowser()

@@ -28,6 +28,7 @@ import { join, resolve } from 'node:path'
 import { ROOT } from './lib/paths'
 import { startDatabase, startServerProcess } from './lib/harness'
 import { launchBrowser } from '../tests/support/browser'
+import { ensureChromium } from './lib/chromium'
 import { examplePlan, storePlan, type Send } from '../tests/api/results.fixture'
 
 const MOVES = 40
@@ -53,6 +54,7 @@ if (process.argv.includes('--build') || !existsSync(join(dist, 'index.html'))) {
   if (build.status !== 0) process.exit(1)
 }
 
+ensureChromium()
 const stack = await startDatabase({ seed: true })
 const server = await startServerProcess(stack.dbUrl, { OHMWARD_CLIENT_DIR: dist })
 const browser = await launchBrowser()

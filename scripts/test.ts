@@ -8,7 +8,7 @@
  *   OHMWARD_TEST_QUICK=1 npm test  skip typecheck, lint and the client build (for quick local loops)
  */
 import { spawn, spawnSync, type ChildProcess } from 'node:child_process'
-import { existsSync, mkdtempSync, rmSync, chmodSync } from 'node:fs'
+import { mkdtempSync, rmSync, chmodSync } from 'node:fs'
 import { tmpdir } from 'node:os'
 import { join } from 'node:path'
 import {
@@ -22,6 +22,7 @@ import {
   type Cluster,
 } from './lib/pg'
 import { runMigrations } from './lib/migrate'
+import { ensureChromium } from './lib/chromium'
 import { startFakes, fakeSpecs } from './lib/fakes'
 import { ROOT } from './lib/paths'
 
@@ -30,22 +31,6 @@ const vitestArgs = process.argv.slice(2)
 const children: ChildProcess[] = []
 let cluster: Cluster | null = null
 let tempDir: string | null = null
-
-function ensureChromium(): void {
-  if (existsSync('/usr/bin/chromium') || existsSync('/usr/lib/chromium/chromium')) return
-  if (process.getuid?.() !== 0) {
-    console.error('Chromium is needed for the browser tests: sudo apt-get install -y chromium')
-    process.exit(1)
-  }
-  log('installing Chromium from Debian packages…')
-  const env = { ...process.env, DEBIAN_FRONTEND: 'noninteractive' }
-  spawnSync('apt-get', ['update', '-qq'], { stdio: 'inherit', env })
-  const r = spawnSync('apt-get', ['install', '-y', '-qq', 'chromium', 'poppler-utils'], {
-    stdio: 'inherit',
-    env,
-  })
-  if (r.status !== 0) process.exit(r.status ?? 1)
-}
 
 function step(name: string, cmd: string, args: string[]): void {
   log(name)
