@@ -320,13 +320,47 @@ describe('Outlook and Side by side in Chromium', { timeout: 240_000 }, () => {
     await page.locator('[data-test="daily-table"]').scrollIntoViewIfNeeded()
     await expect.poll(() => daily.innerText()).not.toBe(tableBefore)
 
-    // With the chart on screen, it is redrawn by the time the move's key press has been handled.
+    // With the chart on screen, a move redraws it at once (in the chart worker: the move's task only posts
+    // the new figures, and the worker reports the drawing within a few milliseconds).
     await soc.scrollIntoViewIfNeeded()
     await settle()
+    expect(await soc.getAttribute('data-drawn-in')).toBe('worker')
     const shown = await pixels()
+    const drawnBefore = await page.evaluate(() => performance.getEntriesByName('ow-chart-drawn').length)
     await slider.focus()
     await page.keyboard.press('PageUp')
+    await expect
+      .poll(() => page.evaluate(() => performance.getEntriesByName('ow-chart-drawn').length), {
+        timeout: 2000,
+      })
+      .toBeGreaterThan(drawnBefore)
     expect(await pixels()).not.toBe(shown)
+    await context.close()
+  })
+
+  it('shows a tooltip for the hour under the pointer on a chart drawn in the worker', async () => {
+    const { page, context } = await signedInPage(VIEWPORTS.desktop)
+    await page.goto(`${server.url}/scenarios/${winterId}/outlook`)
+    await page.locator('[data-test="verdict"]').waitFor({ timeout: 60_000 })
+    const soc = page.locator('[data-test="chart-soc"] canvas')
+    await soc.scrollIntoViewIfNeeded()
+    await expect.poll(() => soc.getAttribute('data-drawn-in')).toBe('worker')
+    const pixels = () => soc.evaluate((c: HTMLCanvasElement) => c.toDataURL())
+    await expect
+      .poll(() => page.evaluate(() => performance.getEntriesByName('ow-chart-drawn').length))
+      .toBeGreaterThan(0)
+    const plain = await pixels()
+    const box = (await soc.boundingBox())!
+    // The middle of the plot: chart.js's tooltip for the nearest hour (the pointer is forwarded to the worker).
+    await page.mouse.move(box.x + box.width / 2, box.y + box.height * 0.4)
+    await expect.poll(pixels).not.toBe(plain)
+    await soc.screenshot({ path: `${process.env.OHMWARD_ARTIFACTS ?? 'artifacts'}/outlook-soc-tooltip.png` })
+    // Leaving the canvas takes the tooltip away again.
+    await page.mouse.move(box.x + box.width / 2, box.y - 40)
+    await expect.poll(pixels).toBe(plain)
+    await page
+      .locator('[data-test="chart-temperature"] canvas')
+      .screenshot({ path: `${process.env.OHMWARD_ARTIFACTS ?? 'artifacts'}/outlook-temperature-chart.png` })
     await context.close()
   })
 

@@ -59,11 +59,17 @@ export const DASHES: number[][] = [[], [8, 4], [2, 3], [10, 3, 2, 3]]
 
 /** Diagonal hatching, so "out" bars and blocked hours differ from "in" bars by more than colour. */
 export function hatch(color: string, background = 'rgba(255,255,255,0)'): CanvasPattern | string {
-  if (typeof document === 'undefined') return color
-  const c = document.createElement('canvas')
+  // On the page a small canvas; in the chart worker (no document) an OffscreenCanvas.
+  const c: HTMLCanvasElement | OffscreenCanvas | null =
+    typeof document !== 'undefined'
+      ? document.createElement('canvas')
+      : typeof OffscreenCanvas !== 'undefined'
+        ? new OffscreenCanvas(8, 8)
+        : null
+  if (!c) return color
   c.width = 8
   c.height = 8
-  const g = c.getContext('2d')
+  const g = c.getContext('2d') as CanvasRenderingContext2D | OffscreenCanvasRenderingContext2D | null
   if (!g) return color
   g.fillStyle = background
   g.fillRect(0, 0, 8, 8)
@@ -77,7 +83,7 @@ export function hatch(color: string, background = 'rgba(255,255,255,0)'): Canvas
   g.moveTo(6, 10)
   g.lineTo(10, 6)
   g.stroke()
-  return g.createPattern(c, 'repeat') ?? color
+  return g.createPattern(c as CanvasImageSource, 'repeat') ?? color
 }
 
 export interface BandOptions {

@@ -1,167 +1,281 @@
 /**
- * One chart.js chart on a canvas, created once and then updated in place: a change writes the new data
- * arrays into the chart's own dataset objects (matched by label, else by position), lets the component
- * adjust the few options that depend on the data, and redraws with `update('none')` (no animation, no
- * re-created chart, no re-resolved options objects from Vue). Nothing chart.js touches is made reactive.
- * A change that leaves the chart's figures as they were (a new result with the same numbers) is not redrawn.
+ * One Outlook chart in a component: the component gives the kind (chartKinds.ts) and a function of its props
+ * that returns the kind's input; this draws it and redraws it when the input's figures change (not for a new
+ * result with the same numbers). Where the browser can (OffscreenCanvas and module workers), the chart is
+ * drawn in the chart worker (chart.worker.ts), so a "Try a change" move costs the page only posting the new
+ * figures; otherwise (and in component tests) on the page's thread with the same code (chartRunner.ts).
  * A chart scrolled out of view redraws in idle time or when it comes near the viewport (whenVisible.ts).
  */
-import { markRaw, onBeforeUnmount, onMounted, watch, type Ref } from 'vue'
-import { Chart, type ChartConfiguration, type ChartData, type ChartType, type Plugin } from 'chart.js'
+import { onBeforeUnmount, onMounted, ref, toRaw, watch, type Ref } from 'vue'
+import type { ChartInputs, ChartKindName } from './chartKinds'
+import type { ChartPointer, ChartRunner } from './chartRunner'
+import { sameData } from './chartRunner'
+import type { ChartWorkerMessage, ChartWorkerReply } from './chart.worker'
 import { useVisibleWork } from './whenVisible'
 
-export interface ChartSpec<T extends ChartType> {
+export { mergeDatasets, sameData, type AnyDataset } from './chartRunner'
+
+export interface ChartSpec<K extends ChartKindName> {
+  kind: K
   canvas: Ref<HTMLCanvasElement | null>
-  /** The element whose visibility decides whether a change redraws at once (the chart's box). */
+  /** The element whose visibility decides whether a change redraws at once (the chart's box); sized by CSS. */
   box: Ref<HTMLElement | null>
-  /** Type, options and plugins; built once, when the chart is created. */
-  config: () => Omit<ChartConfiguration<T>, 'data'>
-  /** The data to draw now. Called when the chart is created and on every redraw. */
-  data: () => ChartData<T>
-  /** Options that follow the data (axis ends, band ranges), written into chart.options before a redraw. */
-  tune?: (options: NonNullable<ChartConfiguration<T>['options']>) => void
-  /** What the chart draws: a change of any of these redraws it (unless the values are equal to the drawn ones). */
-  sources: (() => unknown)[]
-  /**
-   * For charts whose axes and legend do not follow the data's values (fixed axis ends): a key of everything the
-   * layout does depend on (axis ends, dataset labels). While it and the canvas size stay the same, a redraw
-   * keeps the last layout (chart.js's cancelable `beforeLayout` hook) instead of measuring axes and legend
-   * again, which was most of a redraw's time on a "Try a change" move.
-   */
-  layoutKey?: () => string
+  /** The chart's input now: plain numbers, strings and arrays (it may be posted to the worker). */
+  input: () => ChartInputs[K]
 }
 
-export type AnyDataset = Record<string, unknown> & { label?: string }
+/** Where a chart is drawn. */
+export type ChartPlace = 'worker' | 'page'
 
-/**
- * Writes `next` into the chart's dataset objects, keeping their identity (chart.js keeps each dataset's
- * state, such as hidden from the legend, by object): matched by label first, then, when the number of
- * datasets is unchanged, by position (a label that carries a value, such as the charging limit); others are
- * new objects.
- */
-export function mergeDatasets(
-  current: AnyDataset[],
-  next: AnyDataset[],
-  options: { inPlace?: boolean } = {},
-): AnyDataset[] {
-  const used = new Set<AnyDataset>()
-  const matches: (AnyDataset | undefined)[] = next.map((n) => {
-    const m = current.find((c) => !used.has(c) && c.label !== undefined && c.label === n.label)
-    if (m) used.add(m)
-    return m
-  })
-  if (current.length === next.length)
-    matches.forEach((m, i) => {
-      if (!m && !used.has(current[i]!)) used.add((matches[i] = current[i]!))
+/** Whether this browser can draw charts in a worker: OffscreenCanvas, transferControlToOffscreen and Worker. */
+export function canDrawInWorker(): boolean {
+  return (
+    typeof Worker !== 'undefined' &&
+    typeof OffscreenCanvas !== 'undefined' &&
+    typeof HTMLCanvasElement !== 'undefined' &&
+    'transferControlToOffscreen' in HTMLCanvasElement.prototype &&
+    !workerFailed
+  )
+}
+
+/** The chart worker, shared by every chart of the page; started with the first chart. */
+let worker: Worker | null = null
+let workerFailed = false
+let nextId = 1
+const listeners = new Map<number, (r: ChartWorkerReply) => void>()
+/** Charts to move to the page's thread if the worker fails (their canvases were handed over). */
+const onWorkerFailure = new Set<() => void>()
+
+function chartWorker(): Worker {
+  if (worker) return worker
+  const w = new Worker(new URL('./chart.worker.ts', import.meta.url), { type: 'module' })
+  w.onmessage = (e: MessageEvent<ChartWorkerReply>) => listeners.get(e.data.id)?.(e.data)
+  w.onerror = (e) => {
+    // The worker could not start or threw outside a message: draw every chart on the page from now on.
+    e.preventDefault?.()
+    workerFailed = true
+    worker = null
+    w.terminate()
+    for (const f of [...onWorkerFailure]) f()
+  }
+  worker = w
+  return w
+}
+
+/** Deep plain copy of reactive data (Vue proxies cannot be posted); plain arrays and objects pass through. */
+function plain<T>(v: T): T {
+  const raw = toRaw(v) as unknown
+  if (Array.isArray(raw)) {
+    const a = raw as unknown[]
+    return (typeof a[0] === 'object' && a[0] !== null ? a.map(plain) : a) as T
+  }
+  if (typeof raw === 'object' && raw !== null) {
+    const out: Record<string, unknown> = {}
+    for (const [k, x] of Object.entries(raw)) out[k] = plain(x)
+    return out as T
+  }
+  return raw as T
+}
+
+export function useChart<K extends ChartKindName>(
+  spec: ChartSpec<K>,
+): { place: Ref<ChartPlace | null>; canvasKey: Ref<number> } {
+  /** The input the chart was last drawn from. */
+  let drawn: ChartInputs[K] | null = null
+  /** Where the chart is drawn (null until mounted). */
+  const place = ref<ChartPlace | null>(null)
+  /** Changes when the canvas must be replaced (a canvas handed to a failed worker cannot be drawn on again). */
+  const canvasKey = ref(0)
+
+  // On the page's thread.
+  let runner: ChartRunner<ChartInputs[K]> | null = null
+  // In the worker: the chart's id there; at most one update in flight, the latest waiting input behind it.
+  const id = nextId++
+  let seq = 0
+  let inFlight = false
+  let waiting: ChartInputs[K] | null = null
+  let resizeObserver: ResizeObserver | null = null
+  let unmounted = false
+
+  function send(m: ChartWorkerMessage, transfer: Transferable[] = []): void {
+    worker?.postMessage(m, transfer)
+  }
+  function onReply(r: ChartWorkerReply): void {
+    if (r.type === 'error') {
+      console.error(`chart ${spec.kind}: ${r.message}`)
+      inFlight = false
+      return
+    }
+    // For npm run bench:whatif and the browser's performance panel: when the worker finished drawing.
+    const end = r.endEpochMs - performance.timeOrigin
+    performance.measure?.('ow-chart-redraw', { start: end - r.ms, end })
+    performance.mark?.('ow-chart-drawn', { startTime: end, detail: { kind: spec.kind, seq: r.seq } })
+    if (r.seq === seq) inFlight = false
+    if (!inFlight && waiting) {
+      const next = waiting
+      waiting = null
+      post(next)
+    }
+  }
+  function post(input: ChartInputs[K]): void {
+    inFlight = true
+    send({ type: 'update', id, input: input as never, seq: ++seq })
+  }
+
+  async function startOnPage(canvas: HTMLCanvasElement, input: ChartInputs[K]): Promise<void> {
+    const [{ CHART_KINDS }, { createChartRunner }] = await Promise.all([
+      import('./chartKinds'),
+      import('./chartRunner'),
+    ])
+    if (unmounted) return
+    runner = createChartRunner(canvas, CHART_KINDS[spec.kind]() as never, input)
+    place.value = 'page'
+  }
+
+  function startInWorker(canvas: HTMLCanvasElement, box: HTMLElement, input: ChartInputs[K]): void {
+    const w = chartWorker()
+    listeners.set(id, onReply)
+    onWorkerFailure.add(fallBack)
+    const offscreen = canvas.transferControlToOffscreen()
+    const rect = box.getBoundingClientRect()
+    inFlight = true
+    w.postMessage(
+      {
+        type: 'create',
+        id,
+        kind: spec.kind,
+        canvas: offscreen,
+        input: input as never,
+        width: rect.width,
+        height: rect.height,
+        pixelRatio: window.devicePixelRatio || 1,
+        seq: ++seq,
+      } satisfies ChartWorkerMessage,
+      [offscreen],
+    )
+    let last = { width: rect.width, height: rect.height, pixelRatio: window.devicePixelRatio || 1 }
+    resizeObserver = new ResizeObserver(() => {
+      const r = box.getBoundingClientRect()
+      const next = { width: r.width, height: r.height, pixelRatio: window.devicePixelRatio || 1 }
+      if (next.width === last.width && next.height === last.height && next.pixelRatio === last.pixelRatio)
+        return
+      last = next
+      if (next.width > 0 && next.height > 0) send({ type: 'resize', id, ...next, seq: ++seq })
     })
-  return next.map((n, i) => {
-    const match = matches[i]
-    if (!match) return { ...n }
-    for (const k of Object.keys(match)) if (!(k in n)) delete match[k]
-    const kept = options.inPlace ? match.data : undefined
-    Object.assign(match, n)
-    if (kept !== undefined && copyPoints(kept, n.data)) match.data = kept
-    return match
-  })
-}
-
-/**
- * With chart.js's `parsing: false` the chart reads each {x, y} point object itself: writing the new values
- * into the points it already holds (same array, same objects) spares it re-reading a new array and rebuilding
- * its per-point state on every redraw. Only for equal lengths of {x, y} points; returns whether it copied.
- */
-function copyPoints(into: unknown, from: unknown): boolean {
-  if (!Array.isArray(into) || !Array.isArray(from) || into.length !== from.length || into.length === 0)
-    return false
-  const a = into as { x: unknown; y: unknown }[]
-  const b = from as { x: unknown; y: unknown }[]
-  if (typeof a[0] !== 'object' || typeof b[0] !== 'object' || a[0] === null || b[0] === null) return false
-  for (let i = 0; i < a.length; i++) {
-    a[i]!.x = b[i]!.x
-    a[i]!.y = b[i]!.y
+    resizeObserver.observe(box)
+    place.value = 'worker'
   }
-  return true
-}
 
-/** Same numbers, strings and shapes (arrays and plain objects compared by content, functions by identity). */
-export function sameData(a: unknown, b: unknown): boolean {
-  if (a === b) return true
-  if (typeof a !== 'object' || typeof b !== 'object' || a === null || b === null) return false
-  if (Array.isArray(a)) {
-    if (!Array.isArray(b) || a.length !== b.length) return false
-    for (let i = 0; i < a.length; i++) if (!sameData(a[i], b[i])) return false
-    return true
+  /** The worker failed: a new canvas (the old one was handed over) and the chart on the page's thread. */
+  function fallBack(): void {
+    stopWorkerPart()
+    place.value = null
+    canvasKey.value++
+    // After Vue has put the new canvas in place.
+    requestAnimationFrame(() => {
+      if (unmounted || !spec.canvas.value) return
+      drawn = plain(spec.input())
+      void startOnPage(spec.canvas.value, drawn)
+    })
   }
-  if (Array.isArray(b)) return false
-  const ka = Object.keys(a)
-  if (ka.length !== Object.keys(b).length) return false
-  for (const k of ka)
-    if (!sameData((a as Record<string, unknown>)[k], (b as Record<string, unknown>)[k])) return false
-  return true
-}
-
-export function useChart<T extends ChartType>(spec: ChartSpec<T>): { chart: () => Chart<T> | null } {
-  let chart: Chart<T> | null = null
-  /** The sources' values the chart was last drawn from. */
-  let drawn: unknown[] = []
-  const read = () => spec.sources.map((s) => s())
-
-  /** The layout chart.js last computed: its key and canvas size; `keep` asks the next update to reuse it. */
-  const layout = { key: '', width: -1, height: -1, keep: false }
-  const keepLayout: Plugin = {
-    id: 'owKeepLayout',
-    beforeLayout: () => (layout.keep ? false : undefined),
-    afterLayout: (c) => {
-      layout.key = spec.layoutKey?.() ?? ''
-      layout.width = c.width
-      layout.height = c.height
-    },
+  function stopWorkerPart(): void {
+    resizeObserver?.disconnect()
+    resizeObserver = null
+    listeners.delete(id)
+    onWorkerFailure.delete(fallBack)
+    inFlight = false
+    waiting = null
   }
 
   function redraw(): void {
-    if (!chart) return
-    const t0 = performance.now()
-    const now = read()
-    if (sameData(now, drawn)) return
-    drawn = now
-    const d = spec.data()
-    const cd = chart.data as unknown as { labels?: unknown[]; datasets: AnyDataset[] }
-    if (d.labels !== undefined) cd.labels = d.labels as unknown[]
-    const count = cd.datasets.length
-    cd.datasets = mergeDatasets(cd.datasets, d.datasets as unknown as AnyDataset[], {
-      inPlace: (chart.options as { parsing?: unknown }).parsing === false,
-    })
-    if (spec.tune && chart.options) spec.tune(chart.options as never)
-    layout.keep =
-      spec.layoutKey !== undefined &&
-      cd.datasets.length === count &&
-      layout.key === spec.layoutKey() &&
-      layout.width === chart.width &&
-      layout.height === chart.height
-    chart.update('none')
-    layout.keep = false
-    // For npm run bench:whatif (and the browser's performance panel): the charts' share of a move.
-    performance.measure?.('ow-chart-redraw', { start: t0, end: performance.now() })
+    if (!place.value) return
+    const now = spec.input()
+    if (drawn !== null && sameData(now, drawn)) return
+    if (place.value === 'page') {
+      const t0 = performance.now()
+      drawn = now
+      runner?.update(now)
+      performance.measure?.('ow-chart-redraw', { start: t0, end: performance.now() })
+      return
+    }
+    drawn = plain(now)
+    if (inFlight) waiting = drawn
+    else post(drawn)
   }
   const work = useVisibleWork(spec.box, redraw)
 
   onMounted(() => {
-    if (!spec.canvas.value) return
-    drawn = read()
-    const base = spec.config()
-    const config = {
-      ...base,
-      plugins: [...(base.plugins ?? []), keepLayout],
-      data: spec.data(),
-    } as ChartConfiguration<T>
-    if (spec.tune && config.options) spec.tune(config.options as never)
-    chart = markRaw(new Chart(spec.canvas.value, config)) as Chart<T>
+    const canvas = spec.canvas.value
+    const box = spec.box.value
+    if (!canvas || !box) return
+    drawn = plain(spec.input())
+    if (canDrawInWorker()) {
+      try {
+        return startInWorker(canvas, box, drawn)
+      } catch (e) {
+        console.error('charts: drawing on the page', e)
+        stopWorkerPart()
+      }
+    }
+    void startOnPage(canvas, drawn)
   })
   onBeforeUnmount(() => {
-    chart?.destroy()
-    chart = null
+    unmounted = true
+    if (place.value === 'worker') send({ type: 'destroy', id })
+    stopWorkerPart()
+    runner?.destroy()
+    runner = null
   })
-  // After Vue's own update of this flush, in the same task: the chart is drawn before the next frame.
-  watch(spec.sources, () => work.schedule(), { flush: 'post' })
-  return { chart: () => chart }
+  // After Vue's own update of this flush, in the same task: the chart is drawn (or posted) before the next frame.
+  watch(spec.input, () => work.schedule(), { flush: 'post' })
+
+  /** Pointer events for a chart in the worker: tooltips and legend clicks (chart.js's own events there). */
+  function forwardPointer(canvas: HTMLCanvasElement): () => void {
+    const types: Record<string, ChartPointer['type']> = {
+      mousemove: 'mousemove',
+      mouseout: 'mouseout',
+      click: 'click',
+      touchstart: 'mousedown',
+      touchmove: 'mousemove',
+    }
+    let frame = 0
+    let pendingMove: ChartPointer | null = null
+    const handler = (e: Event) => {
+      if (place.value !== 'worker') return
+      const rect = canvas.getBoundingClientRect()
+      const at = 'touches' in e ? (e as TouchEvent).touches[0] : (e as MouseEvent)
+      if (!at) return
+      const ev: ChartPointer = {
+        type: types[e.type]!,
+        nativeType: e.type,
+        x: at.clientX - rect.left,
+        y: at.clientY - rect.top,
+      }
+      // Moves at most once a frame, like chart.js on the page; other events at once.
+      if (ev.type === 'mousemove') {
+        pendingMove = ev
+        if (!frame)
+          frame = requestAnimationFrame(() => {
+            frame = 0
+            if (pendingMove) send({ type: 'pointer', id, event: pendingMove })
+            pendingMove = null
+          })
+        return
+      }
+      send({ type: 'pointer', id, event: ev })
+    }
+    for (const t of Object.keys(types)) canvas.addEventListener(t, handler, { passive: true })
+    return () => {
+      for (const t of Object.keys(types)) canvas.removeEventListener(t, handler)
+      if (frame) cancelAnimationFrame(frame)
+    }
+  }
+  let unforward: (() => void) | null = null
+  watch(place, (p) => {
+    unforward?.()
+    unforward = p === 'worker' && spec.canvas.value ? forwardPointer(spec.canvas.value) : null
+  })
+  onBeforeUnmount(() => unforward?.())
+
+  return { place, canvasKey }
 }
