@@ -39,6 +39,8 @@ const MOVES = 40
  */
 const FIRST_MOVES = 3
 const FRAME_MS = 1000 / 60
+/** Pause between two presses. [ms] */
+const PAUSE_MS = 120
 
 const distArg = process.argv.find((a) => a.startsWith('--dist='))
 const dist = distArg ? resolve(distArg.slice('--dist='.length)) : join(ROOT, 'dist')
@@ -97,7 +99,7 @@ try {
     if (m.type() === 'error' || m.type() === 'warning') console.error(`[console ${m.type()}]`, m.text())
   })
   await page.addInitScript(() => {
-    const w = window as unknown as { __owMoves: { busy: number; frame: number }[] }
+    const w = window as unknown as { __owMoves: { start: number; busy: number; frame: number }[] }
     w.__owMoves = []
     document.addEventListener(
       'keydown',
@@ -109,7 +111,7 @@ try {
           performance.mark('ow-whatif-end')
           const busy = performance.measure('ow-whatif', 'ow-whatif-start', 'ow-whatif-end').duration
           requestAnimationFrame(() => {
-            w.__owMoves.push({ busy, frame: performance.now() - t0 })
+            w.__owMoves.push({ start: t0, busy, frame: performance.now() - t0 })
             performance.mark('ow-whatif-frame')
           })
         }
@@ -136,7 +138,7 @@ try {
     await cdp.send('Profiler.setSamplingInterval', { interval: 200 })
     await cdp.send('Profiler.start')
   }
-  type Move = { busy: number; frame: number }
+  type Move = { start: number; busy: number; frame: number }
   const moves = () => page.evaluate(() => (window as unknown as { __owMoves: Move[] }).__owMoves.slice())
   /** Which of the four Outlook charts are on screen now. */
   const chartsOnScreen = () =>
@@ -146,18 +148,22 @@ try {
         return !!r && r.bottom > 0 && r.top < window.innerHeight
       }),
     )
-  async function pass(
-    key: string,
-  ): Promise<{ moves: Move[]; engineMs: number[]; chartMs: number[]; onScreen: string[] }> {
+  async function pass(key: string): Promise<{
+    moves: Move[]
+    engineMs: number[]
+    chartMs: number[]
+    drawnAt: number[]
+    onScreen: string[]
+  }> {
     const before = (await moves()).length
     const startedAt = await page.evaluate(() => performance.now())
     const onScreen = await chartsOnScreen()
     for (let i = 0; i < MOVES; i++) {
       await page.keyboard.press(key)
-      await page.waitForTimeout(120)
+      await page.waitForTimeout(PAUSE_MS)
     }
     await page.waitForTimeout(300)
-    const [engineMs, chartMs] = await page.evaluate(
+    const [engineMs, chartMs, drawnAt] = await page.evaluate(
       ([n, since]) => [
         performance
           .getEntriesByName('ow-simulate')
@@ -167,10 +173,15 @@ try {
           .getEntriesByName('ow-chart-redraw')
           .filter((e) => e.startTime >= since)
           .map((e) => e.duration),
+        // When the chart worker finished each drawing (on the page's clock).
+        performance
+          .getEntriesByName('ow-chart-drawn')
+          .filter((e) => e.startTime >= since)
+          .map((e) => e.startTime),
       ],
       [MOVES, startedAt] as const,
     )
-    return { moves: (await moves()).slice(before), engineMs, chartMs, onScreen }
+    return { moves: (await moves()).slice(before), engineMs, chartMs, drawnAt, onScreen }
   }
   // 1: the page as it opens, the charts below the fold (they catch up when the controls are still).
   const top = await pass('ArrowRight')
@@ -222,7 +233,9 @@ try {
     const verbose = process.argv.includes('--profile-total')
     if (verbose) {
       console.log('total time by function (itself and what it called):')
-      for (const [k, ms] of [...total.entries()].sort((a, b) => b[1] - a[1]).slice(0, 70))
+      for (const [k, ms] of [...total.entries()]
+        .sort((a, b) => b[1] - a[1])
+        .slice(0, Number(process.env.BENCH_PROFILE_ROWS ?? 70)))
         if (!k.startsWith('(')) console.log(`${ms.toFixed(0).padStart(7)} ms  ${k}`)
     }
   }
@@ -237,7 +250,19 @@ try {
   }
   const q = (a: number[], p: number) => a[Math.min(a.length - 1, Math.floor(p * a.length))]!
   const r1 = (v: number) => Math.round(v * 10) / 10
-  const stats = (p: { moves: Move[]; engineMs: number[]; chartMs: number[] }) => {
+  const stats = (p: { moves: Move[]; engineMs: number[]; chartMs: number[]; drawnAt: number[] }) => {
+    // Charts drawn in the worker: a move is done when the page's task is over and the worker has drawn every
+    // chart the move changed (the last drawing that ended before the next move began).
+    const done = p.moves.map((m, i) => {
+      // Within the pause between two presses (drawings after that are the off-screen charts catching up).
+      const next = Math.min(p.moves[i + 1]?.start ?? Infinity, m.start + PAUSE_MS)
+      const drawn = p.drawnAt.filter((t) => t >= m.start && t < next)
+      return drawn.length ? Math.max(m.busy, Math.max(...drawn) - m.start) : null
+    })
+    const withCharts = done
+      .slice(FIRST_MOVES)
+      .filter((v): v is number => v !== null)
+      .sort((a, b) => a - b)
     const busy = p.moves.map((m) => m.busy).sort((a, b) => a - b)
     const steady = p.moves
       .slice(FIRST_MOVES)
@@ -267,6 +292,10 @@ try {
           )
         : null,
       toNextFrameMedianMs: r1(q(frame, 0.5)),
+      // Moves (after the first ones) whose charts the worker redrew, and their time until it had drawn them.
+      workerDrawnMoves: withCharts.length,
+      untilChartsDrawnMedianMs: withCharts.length ? r1(q(withCharts, 0.5)) : null,
+      untilChartsDrawnP95Ms: withCharts.length ? r1(q(withCharts, 0.95)) : null,
       withinOneFrameP95: q(busy, 0.95) <= FRAME_MS,
       firstMovesMs: p.moves.slice(0, FIRST_MOVES).map((m) => r1(m.busy)),
       steadyMedianMs: r1(q(steady, 0.5)),

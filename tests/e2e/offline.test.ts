@@ -91,9 +91,24 @@ describe('Offline field use in Chromium', { timeout: 300_000 }, () => {
     const headlineOnline = await page.locator('[data-test="verdict-headline"]').innerText()
     expect(await verdict.getAttribute('data-status')).toBe('short')
 
-    // No signal now. Reload: everything must come from the caches.
+    // No signal now. Reload: everything must come from the caches. Every request that leaves the browser
+    // (the service worker's too) fails as with no network, and the browser reports itself offline.
     await context.setOffline(true)
+    await context.route('**/*', (route) => route.abort('internetdisconnected'))
     await page.reload()
+    // Chromium 150 drops the offline emulation for the document a reload brings in: set it again, so the
+    // page sees navigator.onLine false (the requests fail either way, by the route above).
+    await context.setOffline(false)
+    await context.setOffline(true)
+    expect(await page.evaluate(() => navigator.onLine)).toBe(false)
+    expect(
+      await page.evaluate(() =>
+        fetch('/api/health', { cache: 'no-store' }).then(
+          () => 'answered',
+          () => 'failed',
+        ),
+      ),
+    ).toBe('failed')
     await page.locator('[data-test="offline-banner"]').waitFor({ timeout: 30_000 })
     await verdict.waitFor({ timeout: 60_000 })
     expect(await page.locator('h1').innerText()).toContain('Winter week offline')
@@ -140,6 +155,7 @@ describe('Offline field use in Chromium', { timeout: 300_000 }, () => {
 
     // Back online: the same save goes through.
     await page.keyboard.press('Escape')
+    await context.unroute('**/*')
     await context.setOffline(false)
     await page.locator('[data-test="offline-banner"]').waitFor({ state: 'hidden', timeout: 15_000 })
     await page.locator('[data-test="try-save"]').click()

@@ -349,7 +349,18 @@ describe('Outlook and Side by side in Chromium', { timeout: 240_000 }, () => {
     await expect
       .poll(() => page.evaluate(() => performance.getEntriesByName('ow-chart-drawn').length))
       .toBeGreaterThan(0)
-    const plain = await pixels()
+    // The picture once it has stopped changing (the first drawing may be followed by one at the final size).
+    const steady = async () => {
+      let a = await pixels()
+      for (let i = 0; i < 20; i++) {
+        await page.waitForTimeout(150)
+        const b = await pixels()
+        if (b === a) return b
+        a = b
+      }
+      throw new Error('the chart kept changing')
+    }
+    const plain = await steady()
     const box = (await soc.boundingBox())!
     // The middle of the plot: chart.js's tooltip for the nearest hour (the pointer is forwarded to the worker).
     await page.mouse.move(box.x + box.width / 2, box.y + box.height * 0.4)

@@ -9,11 +9,11 @@
 import { onBeforeUnmount, onMounted, ref, toRaw, watch, type Ref } from 'vue'
 import type { ChartInputs, ChartKindName } from './chartKinds'
 import type { ChartPointer, ChartRunner } from './chartRunner'
-import { sameData } from './chartRunner'
+import { sameData } from './chartData'
 import type { ChartWorkerMessage, ChartWorkerReply } from './chart.worker'
 import { useVisibleWork } from './whenVisible'
 
-export { mergeDatasets, sameData, type AnyDataset } from './chartRunner'
+export { mergeDatasets, sameData, type AnyDataset } from './chartData'
 
 export interface ChartSpec<K extends ChartKindName> {
   kind: K
