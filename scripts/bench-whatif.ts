@@ -11,9 +11,13 @@
  *
  * Measured in the page with performance marks: from the keydown (capture listener, `ow-whatif-start`) until
  * the first task after it (`ow-whatif-end`): the engine's full 31-day trip run on the page's thread, Vue's
- * update, the redraw of the charts on screen and, when the browser renders a frame in between (it usually
- * does after input), that frame's style, layout, paint and commit all happen in between. Also until the next
- * animation frame has run (`toNextFrameMs`, which adds the wait for the frame). One frame at 60 Hz = 16.7 ms.
+ * update, posting the new figures to the chart worker (src/components/chart/chart.worker.ts) and, when the
+ * browser renders a frame in between (it usually does after input), that frame's style, layout, paint and
+ * commit all happen in between. The charts are drawn in the worker meanwhile: `untilChartsDrawn…` is the
+ * time from the keydown until both the page's task is over and the worker has finished the last drawing
+ * that move asked for (its `ow-chart-drawn` marks), i.e. until the whole new picture exists. Also until the
+ * next animation frame has run (`toNextFrameMs`, which adds the wait for the frame). One frame at 60 Hz =
+ * 16.7 ms. `chartRedrawMedianMs` is one drawing's time in the worker.
  *
  * Options: `--build` rebuilds the client first (otherwise dist/ is used as it is); `--dist=<dir>` builds
  * into / serves another folder (with `--no-minify` for readable profiles); `--profile` prints where the
@@ -244,6 +248,7 @@ try {
     // --trace=<file> also keeps the trace, to open in the browser's performance panel.
     if (traceArg!.includes('=')) writeFileSync(traceArg!.slice('--trace='.length), buf)
     printTraceBreakdown(JSON.parse(buf.toString()), [
+      ['top of the page, first moves', 0, FIRST_MOVES],
       ['top of the page', 0, MOVES],
       ['scrolled to the charts', MOVES, 2 * MOVES],
     ])

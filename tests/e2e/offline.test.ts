@@ -81,6 +81,9 @@ describe('Offline field use in Chromium', { timeout: 300_000 }, () => {
     await page.locator('h1').waitFor()
     expect(precached).toContain('/index.html')
     expect(precached.some((u) => /engine\.worker.*\.js$/.test(u))).toBe(true)
+    // The chart worker and the Nunito faces it loads for the charts' text.
+    expect(precached.some((u) => /chart\.worker.*\.js$/.test(u))).toBe(true)
+    expect(precached.some((u) => /nunito-latin-700-normal.*\.woff2$/.test(u))).toBe(true)
 
     await page.goto(`${server.url}/scenarios/${scenarioId}/outlook`)
     const verdict = page.locator('[data-test="verdict"]')

@@ -109,7 +109,7 @@ export function useChart<K extends ChartKindName>(
     // For npm run bench:whatif and the browser's performance panel: when the worker finished drawing.
     const end = r.endEpochMs - performance.timeOrigin
     performance.measure?.('ow-chart-redraw', { start: end - r.ms, end })
-    performance.mark?.('ow-chart-drawn', { startTime: end, detail: { kind: spec.kind, seq: r.seq } })
+    performance.mark?.('ow-chart-drawn', { startTime: end })
     if (r.seq === seq) inFlight = false
     if (!inFlight && waiting) {
       const next = waiting
