@@ -91,7 +91,8 @@ describe('temperature chart', () => {
   })
   it('bands the heater-on and cold-blocked hours', () => {
     const { options } = drawnFrom('temperature', temperatureInput())
-    const bands = (options.plugins as unknown as { owBands: { bands: { ranges: number[][] }[] } }).owBands.bands
+    const bands = (options.plugins as unknown as { owBands: { bands: { ranges: number[][] }[] } }).owBands
+      .bands
     // Blocked: hour 5 of each day; heater: hours 0–3 of each day (in days from the start).
     expect(bands[0]!.ranges).toEqual([
       [5 / 24, 6 / 24],
@@ -109,7 +110,8 @@ describe('state-of-charge chart', () => {
     const kind = CHART_KINDS.soc()
     const options = kind.config(socInput).options as ChartOptions
     const ranges = () =>
-      (options.plugins as unknown as { owBands: { bands: { ranges: number[][] }[] } }).owBands.bands[0]!.ranges
+      (options.plugins as unknown as { owBands: { bands: { ranges: number[][] }[] } }).owBands.bands[0]!
+        .ranges
     kind.tune!(options, socInput)
     const first = ranges()
     expect(first).toEqual([

@@ -29,6 +29,11 @@ describe('Logs in Chromium', () => {
 
   it('uploads the sample log, confirms the mapping, shows the comparison and the cell-spread flag', async () => {
     const { page, context } = await newPage(browser)
+    const errors: string[] = []
+    page.on('pageerror', (e) => errors.push(e.message))
+    page.on('console', (m) => {
+      if (m.type() === 'error') errors.push(m.text())
+    })
     await signInAs(context, server, owner)
     await page.goto(`${server.url}/vehicles/${vehicleId}/logs`)
     await page.getByRole('heading', { name: 'Logs' }).waitFor()
@@ -54,6 +59,15 @@ describe('Logs in Chromium', () => {
     await headline.waitFor({ timeout: 60_000 })
     expect(await headline.innerText()).toMatch(/Over 7 full days: use from the pack is \d+ % above plan/)
     expect(await page.locator('[data-test="logs-days"] tbody tr').count()).toBe(14)
+    // The comparison chart drew something: its canvas differs from a blank one of the same size.
+    const drawn = await page.locator('[data-test="logs-compare"] canvas').evaluate((c: HTMLCanvasElement) => {
+      const blank = document.createElement('canvas')
+      blank.width = c.width
+      blank.height = c.height
+      return c.width > 0 && c.toDataURL() !== blank.toDataURL()
+    })
+    expect(drawn).toBe(true)
+    expect(errors).toEqual([])
     await screenshot(page, 'logs-compare-desktop')
 
     await page.locator('[data-test="logs-compare-table-toggle"]').click()

@@ -334,7 +334,8 @@ describe('Outlook and Side by side in Chromium', { timeout: 240_000 }, () => {
         timeout: 2000,
       })
       .toBeGreaterThan(drawnBefore)
-    expect(await pixels()).not.toBe(shown)
+    // The placeholder canvas shows the worker's new frame once the compositor has it.
+    await expect.poll(pixels, { timeout: 2000 }).not.toBe(shown)
     await context.close()
   })
 

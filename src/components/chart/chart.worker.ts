@@ -34,7 +34,11 @@ export type ChartWorkerMessage =
 export type ChartWorkerReply =
   /** A drawing finished: how long it took and when it ended (epoch ms, the page converts it to its clock). */
   | { type: 'drawn'; id: number; seq: number; ms: number; endEpochMs: number }
-  | { type: 'error'; id: number; message: string }
+  /**
+   * A message failed: `seq` is the failed drawing's (or -1 for a pointer event); `fatal` when the chart does
+   * not exist here (its creation failed), so the page draws it itself.
+   */
+  | { type: 'error'; id: number; seq: number; message: string; fatal: boolean }
 
 const scope = self as unknown as {
   postMessage(m: ChartWorkerReply): void
@@ -65,7 +69,9 @@ function loadFonts(): Promise<unknown> {
   })
   return Promise.all(faces)
 }
-const fontsReady = loadFonts()
+/** The charts wait at most this long for the fonts, then draw with the fallback face. [ms] */
+const FONT_WAIT_MS = 1500
+const fontsReady = Promise.race([loadFonts(), new Promise((r) => setTimeout(r, FONT_WAIT_MS))])
 
 const charts = new Map<number, ChartRunner<unknown>>()
 
@@ -89,13 +95,13 @@ function handle(m: ChartWorkerMessage): void {
     }
     case 'update': {
       const c = charts.get(m.id)
-      if (!c) return
+      if (!c) throw new MissingChart()
       c.update(m.input)
       return drawn(m.id, m.seq, t0)
     }
     case 'resize': {
       const c = charts.get(m.id)
-      if (!c) return
+      if (!c) throw new MissingChart()
       c.resize(m.width, m.height, m.pixelRatio)
       return drawn(m.id, m.seq, t0)
     }
@@ -108,16 +114,26 @@ function handle(m: ChartWorkerMessage): void {
   }
 }
 
+/** An update or resize for a chart whose creation failed. */
+class MissingChart extends Error {
+  constructor() {
+    super('no such chart here')
+  }
+}
+
 // Messages wait for the fonts once; after that they run in the order they came.
 scope.onmessage = (e) => {
   void fontsReady.then(() => {
+    const m = e.data
     try {
-      handle(e.data)
+      handle(m)
     } catch (err) {
       scope.postMessage({
         type: 'error',
-        id: e.data.id,
+        id: m.id,
+        seq: 'seq' in m ? m.seq : -1,
         message: err instanceof Error ? err.message : String(err),
+        fatal: m.type === 'create' || err instanceof MissingChart,
       })
     }
   })

@@ -77,6 +77,23 @@ function plain<T>(v: T): T {
   return raw as T
 }
 
+/** Calls `cb` whenever window.devicePixelRatio changes (browser zoom, a screen with another density). */
+function watchPixelRatio(cb: () => void): () => void {
+  if (typeof matchMedia === 'undefined') return () => {}
+  let query: MediaQueryList | null = null
+  const onChange = () => {
+    cb()
+    arm()
+  }
+  const arm = () => {
+    query?.removeEventListener('change', onChange)
+    query = matchMedia(`(resolution: ${window.devicePixelRatio || 1}dppx)`)
+    query.addEventListener('change', onChange)
+  }
+  arm()
+  return () => query?.removeEventListener('change', onChange)
+}
+
 export function useChart<K extends ChartKindName>(
   spec: ChartSpec<K>,
 ): { place: Ref<ChartPlace | null>; canvasKey: Ref<number> } {
@@ -95,6 +112,7 @@ export function useChart<K extends ChartKindName>(
   let inFlight = false
   let waiting: ChartInputs[K] | null = null
   let resizeObserver: ResizeObserver | null = null
+  let unwatchRatio: (() => void) | null = null
   let unmounted = false
 
   function send(m: ChartWorkerMessage, transfer: Transferable[] = []): void {
@@ -103,23 +121,27 @@ export function useChart<K extends ChartKindName>(
   function onReply(r: ChartWorkerReply): void {
     if (r.type === 'error') {
       console.error(`chart ${spec.kind}: ${r.message}`)
-      inFlight = false
-      return
+      // The chart does not exist in the worker: draw it on the page instead.
+      if (r.fatal) return fallBack()
     }
-    // For npm run bench:whatif and the browser's performance panel: when the worker finished drawing.
-    const end = r.endEpochMs - performance.timeOrigin
-    performance.measure?.('ow-chart-redraw', { start: end - r.ms, end })
-    performance.mark?.('ow-chart-drawn', { startTime: end })
     if (r.seq === seq) inFlight = false
     if (!inFlight && waiting) {
       const next = waiting
       waiting = null
       post(next)
     }
+    if (r.type === 'drawn') {
+      // For npm run bench:whatif and the browser's performance panel: when the worker finished drawing.
+      const end = r.endEpochMs - performance.timeOrigin
+      performance.measure?.('ow-chart-redraw', { start: Math.max(0, end - r.ms), end })
+      performance.mark?.('ow-chart-drawn', { startTime: Math.max(0, end) })
+    }
   }
   function post(input: ChartInputs[K]): void {
+    const next = seq + 1
+    send({ type: 'update', id, input: input as never, seq: next })
+    seq = next
     inFlight = true
-    send({ type: 'update', id, input: input as never, seq: ++seq })
   }
 
   async function startOnPage(canvas: HTMLCanvasElement, input: ChartInputs[K]): Promise<void> {
@@ -130,6 +152,8 @@ export function useChart<K extends ChartKindName>(
     if (unmounted) return
     runner = createChartRunner(canvas, CHART_KINDS[spec.kind]() as never, input)
     place.value = 'page'
+    // A change that came while chart.js was loading.
+    redraw()
   }
 
   function startInWorker(canvas: HTMLCanvasElement, box: HTMLElement, input: ChartInputs[K]): void {
@@ -154,15 +178,18 @@ export function useChart<K extends ChartKindName>(
       [offscreen],
     )
     let last = { width: rect.width, height: rect.height, pixelRatio: window.devicePixelRatio || 1 }
-    resizeObserver = new ResizeObserver(() => {
+    const sizeChanged = () => {
       const r = box.getBoundingClientRect()
       const next = { width: r.width, height: r.height, pixelRatio: window.devicePixelRatio || 1 }
       if (next.width === last.width && next.height === last.height && next.pixelRatio === last.pixelRatio)
         return
       last = next
       if (next.width > 0 && next.height > 0) send({ type: 'resize', id, ...next, seq: ++seq })
-    })
+    }
+    resizeObserver = new ResizeObserver(sizeChanged)
     resizeObserver.observe(box)
+    // Zoom or a move to another screen changes the pixel ratio without resizing the box.
+    unwatchRatio = watchPixelRatio(sizeChanged)
     place.value = 'worker'
   }
 
@@ -181,6 +208,8 @@ export function useChart<K extends ChartKindName>(
   function stopWorkerPart(): void {
     resizeObserver?.disconnect()
     resizeObserver = null
+    unwatchRatio?.()
+    unwatchRatio = null
     listeners.delete(id)
     onWorkerFailure.delete(fallBack)
     inFlight = false
@@ -213,8 +242,9 @@ export function useChart<K extends ChartKindName>(
       try {
         return startInWorker(canvas, box, drawn)
       } catch (e) {
+        // The canvas may have been handed over already: a new one, drawn on the page.
         console.error('charts: drawing on the page', e)
-        stopWorkerPart()
+        return fallBack()
       }
     }
     void startOnPage(canvas, drawn)
@@ -251,7 +281,13 @@ export function useChart<K extends ChartKindName>(
         x: at.clientX - rect.left,
         y: at.clientY - rect.top,
       }
-      // Moves at most once a frame, like chart.js on the page; other events at once.
+      // Moves at most once a frame, like chart.js on the page; other events at once (a move still waiting
+      // for its frame is dropped when the pointer leaves, so it cannot bring the tooltip back).
+      if (ev.type === 'mouseout' && frame) {
+        cancelAnimationFrame(frame)
+        frame = 0
+        pendingMove = null
+      }
       if (ev.type === 'mousemove') {
         pendingMove = ev
         if (!frame)

@@ -29,6 +29,16 @@ function cancelIdle(id: number): void {
   else clearTimeout(id)
 }
 
+/**
+ * True between the browser's beforeprint and afterprint: everything follows at once (a part that gets new
+ * input while printing, such as a chart inside a block that has just caught up, must not wait for idle time).
+ */
+let printing = false
+if (typeof window !== 'undefined') {
+  window.addEventListener('beforeprint', () => (printing = true))
+  window.addEventListener('afterprint', () => (printing = false))
+}
+
 /** One observer for every part (the browser computes intersections once per frame for all of them). */
 let observer: IntersectionObserver | null = null
 const watched = new Map<Element, (visible: boolean) => void>()
@@ -82,7 +92,7 @@ export function useVisibleWork(el: Ref<HTMLElement | null>, run: () => void): Vi
   }
   function schedule(): void {
     pending = true
-    if (visible) return flush()
+    if (visible || printing) return flush()
     cancel()
     quiet = setTimeout(() => {
       quiet = null
