@@ -83,6 +83,13 @@ export interface ChartInputs {
 export type ChartKindName = keyof ChartInputs
 
 type Pt = { x: number; y: number }
+
+/** The day axis' end and tick step for a trip of `days` (hourly charts whose trip length may change). */
+function tuneDayAxis(o: ChartOptions, days: number): void {
+  const x = o.scales!.x as { max?: number; ticks: { stepSize?: number } }
+  x.max = days
+  x.ticks.stepSize = dayAxis(days).ticks.stepSize
+}
 type Plugins = ChartOptions<'line'>['plugins']
 
 const LINE_COLOURS = [SERIES.soc, '#4d4d4d', SERIES.soc, '#4d4d4d']
@@ -147,10 +154,7 @@ function socChart(): ChartKind<SocInput> {
     layoutKey: (i) =>
       JSON.stringify([days(i), i.lines.map((l) => [l.label, l.socFloorFraction]), i.lines.length]),
     tune(o, input) {
-      const x = o.scales!.x as { max?: number; ticks: { stepSize?: number } }
-      const d = days(input)
-      x.max = d
-      x.ticks.stepSize = dayAxis(d).ticks.stepSize
+      tuneDayAxis(o, days(input))
       const bands = (o.plugins as { owBands: { bands: BandOptions[] } }).owBands.bands
       bands[0]!.ranges = nightRanges(input)
     },
@@ -279,10 +283,7 @@ function temperatureChart(): ChartKind<TemperatureInput> {
       return JSON.stringify([days(i), y.min, y.max, i.unit, Math.round(i.chargeMin)])
     },
     tune(o, input) {
-      const x = o.scales!.x as { max?: number; ticks: { stepSize?: number } }
-      const d = days(input)
-      x.max = d
-      x.ticks.stepSize = dayAxis(d).ticks.stepSize
+      tuneDayAxis(o, days(input))
       const y = o.scales!.y as { min?: number; max?: number }
       const b = yBounds(input)
       y.min = b.min
