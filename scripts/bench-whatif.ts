@@ -9,22 +9,28 @@
  * back down. Charts off screen catch up once the controls are still (src/components/chart/whenVisible.ts),
  * so the second pass is the one that pays for redrawing charts.
  *
- * Measured in the page with performance marks: from the keydown (capture listener, `ow-whatif-start`) until
- * the first task after it (`ow-whatif-end`): the engine's full 31-day trip run on the page's thread, Vue's
- * update, posting the new figures to the chart worker (src/components/chart/chart.worker.ts) and, when the
- * browser renders a frame in between (it usually does after input), that frame's style, layout, paint and
- * commit all happen in between. The charts are drawn in the worker meanwhile: `untilChartsDrawn…` is the
- * time from the keydown until both the page's task is over and the worker has finished the last drawing
- * that move asked for (its `ow-chart-drawn` marks), i.e. until the whole new picture exists. Also until the
- * next animation frame has run (`toNextFrameMs`, which adds the wait for the frame). One frame at 60 Hz =
- * 16.7 ms. `chartRedrawMedianMs` is one drawing's time in the worker.
+ * Measured in the page with performance marks, for each move until the new picture exists
+ * (`untilShown…`): from the keydown (capture listener, `ow-whatif-start`) until the first task after it
+ * (`ow-whatif-end`). For a trip up to SYNC_MAX_DAYS that task holds the engine's full trip run on the page's
+ * thread, Vue's update, posting the new figures to the chart worker (src/components/chart/chart.worker.ts)
+ * and, when the browser renders a frame in between (it usually does after input), that frame's style,
+ * layout, paint and commit. For a longer trip the run goes to the trip worker (src/composables/
+ * useTripRuns.ts) and the move lasts until the first task after its figures came back
+ * (`ow-result-received`). `pageThread…` adds up the page's own tasks of a move (the worker's time left out).
+ * The charts are drawn in the chart worker meanwhile: `untilChartsDrawn…` is until both the above and the
+ * worker's last drawing that move asked for (its `ow-chart-drawn` marks). Also until the next animation
+ * frame after the keydown's task (`toNextFrameMs`, which adds the wait for the frame). One frame at 60 Hz =
+ * 16.7 ms. `chartRedrawMedianMs` is one drawing's time in the worker; `engineRunMedianMs` one trip run,
+ * wherever it ran.
  *
  * Options: `--build` rebuilds the client first (otherwise dist/ is used as it is); `--dist=<dir>` builds
  * into / serves another folder (with `--no-minify` for readable profiles); `--profile` prints where the
  * page's thread spent its time by function (`--profile-total` adds inclusive times, `--profile=<file>`
  * keeps the profile); `--trace[=<file>]` records a Chrome trace and prints a per-move breakdown by trace
- * event (script, style, layout, paint, commit), optionally keeping the trace for the performance panel.
- * The last line is one JSON object.
+ * event (script, style, layout, paint, commit), optionally keeping the trace for the performance panel;
+ * `--moves=<n>` presses n times a pass instead of 40; `--days=<n>` makes the trip n days long. To compare
+ * with another version, build it elsewhere (`git worktree add`, then `npx vite build --outDir <dir>`) and
+ * pass `--dist=<dir>`. The last line is one JSON object.
  */
 import { spawnSync } from 'node:child_process'
 import { existsSync, writeFileSync } from 'node:fs'
@@ -35,7 +41,9 @@ import { launchBrowser } from '../tests/support/browser'
 import { ensureChromium } from './lib/chromium'
 import { examplePlan, storePlan, type Send } from '../tests/api/results.fixture'
 
-const MOVES = 40
+/** Presses a pass (`--moves=<n>` for another count, e.g. `--moves=3 --profile` to see a drag's first moves). */
+const movesArg = process.argv.find((a) => a.startsWith('--moves='))
+const MOVES = movesArg ? Math.max(1, Number(movesArg.slice('--moves='.length)) || 40) : 40
 /**
  * The first moves of a drag pay once for what later moves reuse (compiled code for the new values, the page
  * switching its off-screen parts to skip layout): reported on their own (`firstMovesMs`), and the
@@ -83,6 +91,9 @@ try {
     return { status: res.status, body: text ? JSON.parse(text) : null }
   }
   const plan = examplePlan('summer-month-andalusia')
+  // --days=<n>: the same trip made longer (beyond SYNC_MAX_DAYS the moves run in the trip worker).
+  const daysArg = process.argv.find((a) => a.startsWith('--days='))
+  if (daysArg) plan.trip.days = Math.min(366, Math.max(1, Number(daysArg.slice('--days='.length)) || 31))
   const { scenarioId } = await storePlan(send, plan, {
     vehicle: 'Bench van',
     scenario: 'Bench: summer month',
@@ -103,8 +114,29 @@ try {
     if (m.type() === 'error' || m.type() === 'warning') console.error(`[console ${m.type()}]`, m.text())
   })
   await page.addInitScript(() => {
-    const w = window as unknown as { __owMoves: { start: number; busy: number; frame: number }[] }
+    const w = window as unknown as {
+      __owMoves: { start: number; busy: number; frame: number }[]
+      __owReplies: { received: number; settled: number }[]
+    }
     w.__owMoves = []
+    w.__owReplies = []
+    // A move's figures coming back from the trip worker (src/composables/useTripRuns.ts marks it before
+    // Vue's update): until the first task after it, which runs after Vue's update, the charts' posting and
+    // the frame's rendering when the browser renders one in between.
+    const mark = performance.mark.bind(performance)
+    performance.mark = ((name: string, options?: PerformanceMarkOptions) => {
+      const entry = mark(name, options)
+      if (name === 'ow-result-received') {
+        const received = performance.now()
+        const ch = new MessageChannel()
+        ch.port1.onmessage = () => {
+          w.__owReplies.push({ received, settled: performance.now() })
+          performance.mark('ow-result-settled')
+        }
+        ch.port2.postMessage(0)
+      }
+      return entry
+    }) as typeof performance.mark
     document.addEventListener(
       'keydown',
       () => {
@@ -143,7 +175,10 @@ try {
     await cdp.send('Profiler.start')
   }
   type Move = { start: number; busy: number; frame: number }
+  type Reply = { received: number; settled: number }
   const moves = () => page.evaluate(() => (window as unknown as { __owMoves: Move[] }).__owMoves.slice())
+  const replies = () =>
+    page.evaluate(() => (window as unknown as { __owReplies: Reply[] }).__owReplies.slice())
   /** Which of the four Outlook charts are on screen now. */
   const chartsOnScreen = () =>
     page.evaluate(() =>
@@ -154,12 +189,14 @@ try {
     )
   async function pass(key: string): Promise<{
     moves: Move[]
+    replies: Reply[]
     engineMs: number[]
     chartMs: number[]
     drawnAt: number[]
     onScreen: string[]
   }> {
     const before = (await moves()).length
+    const repliesBefore = (await replies()).length
     const startedAt = await page.evaluate(() => performance.now())
     const onScreen = await chartsOnScreen()
     for (let i = 0; i < MOVES; i++) {
@@ -185,7 +222,14 @@ try {
       ],
       [MOVES, startedAt] as const,
     )
-    return { moves: (await moves()).slice(before), engineMs, chartMs, drawnAt, onScreen }
+    return {
+      moves: (await moves()).slice(before),
+      replies: (await replies()).slice(repliesBefore),
+      engineMs,
+      chartMs,
+      drawnAt,
+      onScreen,
+    }
   }
   // 1: the page as it opens, the charts below the fold (they catch up when the controls are still).
   const top = await pass('ArrowRight')
@@ -255,57 +299,65 @@ try {
   }
   const q = (a: number[], p: number) => a[Math.min(a.length - 1, Math.floor(p * a.length))]!
   const r1 = (v: number) => Math.round(v * 10) / 10
-  const stats = (p: { moves: Move[]; engineMs: number[]; chartMs: number[]; drawnAt: number[] }) => {
-    // Charts drawn in the worker: a move is done when the page's task is over and the worker has drawn every
-    // chart the move changed (the last drawing that ended before the next move began).
-    const done = p.moves.map((m, i) => {
-      // Within the pause between two presses (drawings after that are the off-screen charts catching up).
+  const stats = (p: {
+    moves: Move[]
+    replies: Reply[]
+    engineMs: number[]
+    chartMs: number[]
+    drawnAt: number[]
+  }) => {
+    const sorted = (a: number[]) => [...a].sort((x, y) => x - y)
+    const figures = (a: number[]) => ({ median: r1(q(sorted(a), 0.5)), p95: r1(q(sorted(a), 0.95)) })
+    // Each move until the new picture exists: the keydown's task is over, the figures the trip worker sent
+    // back are on the page (their task and the frame rendered in between), and the chart worker has drawn
+    // every chart the move changed. Only what happened before the next press (or within the pause) counts:
+    // drawings after that are the off-screen charts catching up.
+    const per = p.moves.map((m, i) => {
       const next = Math.min(p.moves[i + 1]?.start ?? Infinity, m.start + PAUSE_MS)
+      const own = p.replies.filter((r) => r.received >= m.start && r.received < next)
       const drawn = p.drawnAt.filter((t) => t >= m.start && t < next)
-      return drawn.length ? Math.max(m.busy, Math.max(...drawn) - m.start) : null
+      const shown = Math.max(m.busy, ...own.map((r) => r.settled - m.start))
+      return {
+        shown,
+        done: Math.max(shown, ...drawn.map((t) => t - m.start)),
+        charts: drawn.length > 0,
+        // The page's thread: the keydown's task and the tasks that put the figures on the page.
+        page: m.busy + own.reduce((sum, r) => sum + (r.settled - r.received), 0),
+        fromWorker: own.length > 0,
+      }
     })
-    const withCharts = done
+    const done = per.map((m) => m.done)
+    const steady = done.slice(FIRST_MOVES)
+    const withCharts = per
       .slice(FIRST_MOVES)
-      .filter((v): v is number => v !== null)
-      .sort((a, b) => a - b)
-    const busy = p.moves.map((m) => m.busy).sort((a, b) => a - b)
-    const steady = p.moves
-      .slice(FIRST_MOVES)
-      .map((m) => m.busy)
-      .sort((a, b) => a - b)
+      .filter((m) => m.charts)
+      .map((m) => m.done)
     const frame = p.moves.map((m) => m.frame).sort((a, b) => a - b)
     return {
       moves: p.moves.length,
-      recomputeAndChartsMinMs: r1(busy[0]!),
-      recomputeAndChartsMedianMs: r1(q(busy, 0.5)),
-      recomputeAndChartsP95Ms: r1(q(busy, 0.95)),
-      recomputeAndChartsMaxMs: r1(busy[busy.length - 1]!),
-      engineRunMedianMs: r1(
-        q(
-          [...p.engineMs].sort((a, b) => a - b),
-          0.5,
-        ),
-      ),
+      // Moves whose figures came from the trip worker (the rest ran on the page's thread).
+      movesRunInWorker: per.filter((m) => m.fromWorker).length,
+      untilShownMinMs: r1(Math.min(...done)),
+      untilShownMedianMs: figures(done).median,
+      untilShownP95Ms: figures(done).p95,
+      untilShownMaxMs: r1(Math.max(...done)),
+      pageThreadMedianMs: figures(per.map((m) => m.page)).median,
+      pageThreadP95Ms: figures(per.map((m) => m.page)).p95,
+      keydownTaskMedianMs: figures(p.moves.map((m) => m.busy)).median,
+      engineRunMedianMs: r1(q(sorted(p.engineMs), 0.5)),
       // Chart redraws in the pass (on screen at once, off screen once the controls are still), each one's time.
       chartRedraws: p.chartMs.length,
-      chartRedrawMedianMs: p.chartMs.length
-        ? r1(
-            q(
-              [...p.chartMs].sort((a, b) => a - b),
-              0.5,
-            ),
-          )
-        : null,
+      chartRedrawMedianMs: p.chartMs.length ? r1(q(sorted(p.chartMs), 0.5)) : null,
       toNextFrameMedianMs: r1(q(frame, 0.5)),
       // Moves (after the first ones) whose charts the worker redrew, and their time until it had drawn them.
       workerDrawnMoves: withCharts.length,
-      untilChartsDrawnMedianMs: withCharts.length ? r1(q(withCharts, 0.5)) : null,
-      untilChartsDrawnP95Ms: withCharts.length ? r1(q(withCharts, 0.95)) : null,
-      withinOneFrameP95: q(busy, 0.95) <= FRAME_MS,
-      firstMovesMs: p.moves.slice(0, FIRST_MOVES).map((m) => r1(m.busy)),
-      steadyMedianMs: r1(q(steady, 0.5)),
-      steadyP95Ms: r1(q(steady, 0.95)),
-      steadyWithinOneFrameP95: q(steady, 0.95) <= FRAME_MS,
+      untilChartsDrawnMedianMs: withCharts.length ? figures(withCharts).median : null,
+      untilChartsDrawnP95Ms: withCharts.length ? figures(withCharts).p95 : null,
+      withinOneFrameP95: q(sorted(done), 0.95) <= FRAME_MS,
+      firstMovesMs: done.slice(0, FIRST_MOVES).map(r1),
+      steadyMedianMs: steady.length ? figures(steady).median : null,
+      steadyP95Ms: steady.length ? figures(steady).p95 : null,
+      steadyWithinOneFrameP95: steady.length > 0 && q(sorted(steady), 0.95) <= FRAME_MS,
     }
   }
   const capacityEnd = await page.locator('input[data-test="try-capacity-input"]').inputValue()
@@ -343,8 +395,9 @@ type TraceEvent = {
 
 /**
  * --trace: what the page's main thread did in each move, by trace event (self time, so nested events are
- * not counted twice), split into "before the task after the keydown" (what recomputeAndCharts measures)
- * and "after it, until the next frame". Mean milliseconds per move.
+ * not counted twice), split into the keydown's task (until the task after it) and the tasks that put the
+ * trip worker's figures on the page (from `ow-result-received` until the task after it). Mean milliseconds
+ * per move.
  */
 function printTraceBreakdown(
   trace: { traceEvents: TraceEvent[] } | TraceEvent[],
@@ -357,7 +410,6 @@ function printTraceBreakdown(
       .sort((a, b) => a.ts - b.ts)
   const starts = marks('ow-whatif-start')
   const ends = marks('ow-whatif-end')
-  const frames = marks('ow-whatif-frame')
   if (!starts.length) {
     console.log('trace: no move marks found')
     return
@@ -376,24 +428,32 @@ function printTraceBreakdown(
     self.set(e, (self.get(e) ?? 0) + e.dur!)
     stack.push(e)
   }
+  const received = marks('ow-result-received')
+  const settled = marks('ow-result-settled')
+  /** Self time by event name of the main thread's events that began in [from, to) (or ran across from). */
+  const add = (m: Map<string, number>, from: number, to: number) => {
+    for (const e of main) {
+      if (e.ts < from - 2000 || e.ts >= to) continue
+      // Events that began before the mark count when they were still running at it (the keydown dispatch).
+      if (e.ts < from && e.ts + e.dur! <= from) continue
+      m.set(e.name, (m.get(e.name) ?? 0) + (self.get(e) ?? 0) / 1000)
+    }
+  }
   for (const [name, from, to] of passes) {
     const busy = new Map<string, number>()
     const after = new Map<string, number>()
     let n = 0
-    for (const s of starts.slice(from, to)) {
+    starts.slice(from, to).forEach((s, i) => {
       const end = ends.find((e) => e.ts >= s.ts)
-      const frame = frames.find((f) => f.ts >= s.ts)
-      if (!end || !frame) continue
+      const next = starts[from + i + 1]?.ts ?? Infinity
+      if (!end) return
       n++
-      for (const e of main) {
-        if (e.ts < s.ts - 2000 || e.ts > frame.ts) continue
-        // Events that began before the mark count when they were still running at it (the keydown dispatch).
-        if (e.ts < s.ts && e.ts + e.dur! <= s.ts) continue
-        const t = (self.get(e) ?? 0) / 1000
-        const m = e.ts < end.ts ? busy : after
-        m.set(e.name, (m.get(e.name) ?? 0) + t)
+      add(busy, s.ts, end.ts)
+      for (const r of received.filter((r) => r.ts >= s.ts && r.ts < next)) {
+        const done = settled.find((x) => x.ts >= r.ts)
+        if (done) add(after, r.ts, done.ts)
       }
-    }
+    })
     if (!n) continue
     const show = (title: string, m: Map<string, number>) => {
       const rows = [...m.entries()].sort((a, b) => b[1] - a[1]).filter(([, v]) => v / n >= 0.05)
@@ -403,6 +463,6 @@ function printTraceBreakdown(
     }
     console.log(`trace, ${name}: ${n} moves`)
     show('keydown → task after', busy)
-    show('task after → next frame', after)
+    show("trip worker's figures received → task after", after)
   }
 }

@@ -1,13 +1,5 @@
 import { onScopeDispose, ref } from 'vue'
-import {
-  analysePlan,
-  resultsToJson,
-  simulate,
-  type Analysis,
-  type Jsonified,
-  type Plan,
-  type SimulationResult,
-} from '@shared/engine'
+import { analysePlan, resultsToJson, type Analysis, type Jsonified, type Plan } from '@shared/engine'
 import type { EngineJob, EngineReply } from '../workers/engine.worker'
 
 export type AnalysisJson = Jsonified<Analysis>
@@ -85,15 +77,10 @@ export function useEngineWorker() {
 
   /** The full analysis (trip run + sizing searches), with progress. */
   function analyse(plan: Plan): Promise<AnalysisJson> {
-    return run('analyse', plan) as Promise<AnalysisJson>
+    return run(plan) as Promise<AnalysisJson>
   }
 
-  /** One trip run (used for long trips, so a what-if move never blocks the page). */
-  function simulateOff(plan: Plan): Promise<Jsonified<SimulationResult>> {
-    return run('simulate', plan) as Promise<Jsonified<SimulationResult>>
-  }
-
-  function run(kind: EngineJob['kind'], plan: Plan): Promise<unknown> {
+  function run(plan: Plan): Promise<unknown> {
     cancel()
     const id = ++seq
     running.value = true
@@ -103,7 +90,7 @@ export function useEngineWorker() {
         setTimeout(() => {
           if (id !== seq) return
           try {
-            const r = resultsToJson(kind === 'simulate' ? simulate(plan) : analysePlan(plan))
+            const r = resultsToJson(analysePlan(plan))
             running.value = false
             progress.value = null
             resolve(r)
@@ -117,7 +104,7 @@ export function useEngineWorker() {
     worker ??= spawn()
     return new Promise((resolve, reject) => {
       pending = { id, resolve, reject }
-      const job: EngineJob = { id, kind, plan: JSON.parse(JSON.stringify(plan)) as Plan }
+      const job: EngineJob = { id, kind: 'analyse', plan: JSON.parse(JSON.stringify(plan)) as Plan }
       worker!.postMessage(job)
     })
   }
@@ -128,5 +115,5 @@ export function useEngineWorker() {
     worker = null
   })
 
-  return { analyse, simulate: simulateOff, cancel, progress, running }
+  return { analyse, cancel, progress, running }
 }

@@ -1,5 +1,5 @@
 import { computed, reactive, ref, shallowRef, watch, type Ref } from 'vue'
-import { simulate, resultsToJson, type Jsonified, type Plan, type SimulationResult } from '@shared/engine'
+import type { Plan } from '@shared/engine'
 import { ApiError } from '../api/http'
 import { fetchScenario, fetchScenarioPlan } from '../api/results'
 import type { Scenario } from '@shared/schemas/vehicles'
@@ -11,20 +11,21 @@ import {
   type WhatIf,
 } from '../components/outlook/whatIf'
 import { useEngineWorker, type AnalysisJson } from './useEngineWorker'
+import { useTripRuns, type SimulationJson } from './useTripRuns'
 
-export type SimulationJson = Jsonified<SimulationResult>
+export type { SimulationJson }
 export type OutlookStatus = 'loading' | 'ready' | 'incomplete' | 'error'
 
-/** Longest trip run on the page's thread on every move; longer trips run in a worker. [days] */
+/** Longest trip run on the page's thread on every move; longer trips run in a worker (useTripRuns). [days] */
 export const SYNC_MAX_DAYS = 92
 
 /** Delay before the sizing searches rerun after a control stops moving. [ms] */
 const ANALYSIS_DEBOUNCE_MS = 350
 
 /**
- * The Outlook of one scenario: loads the scenario and its plan, runs the engine on the page's thread for
- * every "Try a change" move (one trip run is fast), and runs the sizing searches (pack needed, solar
- * needed, autonomy) in the worker with progress, debounced, cancelling stale ones.
+ * The Outlook of one scenario: loads the scenario and its plan, runs the trip once per "Try a change" move
+ * (useTripRuns: on the page's thread, in a worker for long trips), and runs the sizing searches (pack needed, solar needed,
+ * autonomy) in another worker with progress, debounced, cancelling stale ones.
  */
 export function useOutlook(scenarioId: Ref<string>) {
   const status = ref<OutlookStatus>('loading')
@@ -35,8 +36,6 @@ export function useOutlook(scenarioId: Ref<string>) {
   const engine = useEngineWorker()
   const analysis = shallowRef<AnalysisJson | null>(null)
   const analysisError = ref<string | null>(null)
-  /** Time of the last trip run on the page's thread (simulate + JSON form). [ms] */
-  const lastRunMs = ref(0)
 
   const base = computed(() => (basePlan.value ? whatIfBase(basePlan.value) : null))
   const changed = computed(() => (base.value ? isChanged(whatIf, base.value) : false))
@@ -45,38 +44,10 @@ export function useOutlook(scenarioId: Ref<string>) {
     basePlan.value ? (changed.value ? applyWhatIf(basePlan.value, { ...whatIf }) : basePlan.value) : null,
   )
 
-  /**
-   * One trip run per change. Trips up to SYNC_MAX_DAYS run on the page's thread (a 31-day run plus the chart
-   * update fits in a frame: npm run bench:whatif); longer ones go to a second worker so a move never blocks
-   * the page, and the previous figures stay on screen until the new ones arrive.
-   */
-  const syncResult = computed<SimulationJson | null>(() => {
-    if (!plan.value || plan.value.trip.days > SYNC_MAX_DAYS) return null
-    const t0 = performance.now()
-    const r = resultsToJson(simulate(plan.value))
-    const t1 = performance.now()
-    lastRunMs.value = t1 - t0
-    // For npm run bench:whatif (and the browser's performance panel): the engine's share of a move.
-    performance.measure?.('ow-simulate', { start: t0, end: t1 })
-    return r
-  })
-  const simWorker = useEngineWorker()
-  const asyncResult = shallowRef<SimulationJson | null>(null)
-  watch(
-    plan,
-    (p) => {
-      if (!p || p.trip.days <= SYNC_MAX_DAYS) return
-      simWorker.simulate(p).then(
-        (r) => {
-          if (plan.value === p) asyncResult.value = r
-        },
-        () => {},
-      )
-    },
-    { immediate: true },
-  )
-  const result = computed<SimulationJson | null>(() => syncResult.value ?? asyncResult.value)
-  const resultPending = computed(() => simWorker.running.value)
+  // One trip run per change: on the page's thread up to SYNC_MAX_DAYS, in a worker beyond (latest move wins).
+  const runs = useTripRuns(plan, basePlan, SYNC_MAX_DAYS)
+  const result = runs.result
+  const resultPending = runs.pending
 
   const analysisFor = shallowRef<Plan | null>(null)
   /** True while the sizing figures belong to an older version of the change. */
@@ -114,7 +85,6 @@ export function useOutlook(scenarioId: Ref<string>) {
     status.value = 'loading'
     error.value = null
     analysis.value = null
-    asyncResult.value = null
     for (const k of Object.keys(whatIf) as (keyof WhatIf)[]) delete whatIf[k]
     try {
       const [s, p] = await Promise.all([fetchScenario(scenarioId.value), fetchScenarioPlan(scenarioId.value)])
@@ -150,7 +120,7 @@ export function useOutlook(scenarioId: Ref<string>) {
     analysisStale,
     analysisError,
     progress: engine.progress,
-    lastRunMs,
+    resultError: runs.error,
     reload: load,
     reset,
   }

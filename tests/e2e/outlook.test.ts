@@ -5,6 +5,10 @@ import { launchBrowser, newPage, screenshot, VIEWPORTS } from '../support/browse
 import { startTestServer, type RunningServer } from '../support/server'
 import { createUser, type TestUser } from '../support/factories'
 import { examplePlan, storePlan, type Send } from '../api/results.fixture'
+import { resultsToJson, simulate, type Plan } from '../../shared/engine'
+import { applyWhatIf } from '../../src/components/outlook/whatIf'
+import { verdictView } from '../../src/components/outlook/verdict'
+import { SYNC_MAX_DAYS } from '../../src/composables/useOutlook'
 
 /** Deep comparison: strings, booleans, nulls and shapes exactly; numbers to 1e-9 relative. */
 function compareResults(a: unknown, b: unknown) {
@@ -78,6 +82,8 @@ describe('Outlook and Side by side in Chromium', { timeout: 240_000 }, () => {
   let winterId: string
   let winterVehicleId: string
   let summerId: string
+  let longId: string
+  let longPlan: Plan
   let savedId: string | undefined
 
   const send =
@@ -122,6 +128,12 @@ describe('Outlook and Side by side in Chromium', { timeout: 240_000 }, () => {
         vehicle: 'Blue van (summer kit)',
         scenario: 'Summer month, Andalusia',
       })
+    ).scenarioId
+    // The summer trip made longer than the page runs itself: its moves go to the trip worker.
+    const summer = examplePlan('summer-month-andalusia')
+    longPlan = { ...summer, trip: { ...summer.trip, days: 120 } }
+    longId = (
+      await storePlan(s, longPlan, { vehicle: 'Blue van (long summer)', scenario: 'Summer, four months' })
     ).scenarioId
   })
   afterAll(async () => {
@@ -252,6 +264,43 @@ describe('Outlook and Side by side in Chromium', { timeout: 240_000 }, () => {
     // The stored original is unchanged.
     const original = await (await page.request.get(`${server.url}/api/scenarios/${winterId}/results`)).json()
     expect(original.results.verdict.status).toBe('short')
+    await context.close()
+  })
+
+  it('follows quick moves on a long trip from the trip worker, ending on the last move’s figures', async () => {
+    expect(longPlan.trip.days).toBeGreaterThan(SYNC_MAX_DAYS)
+    // What the verdict must say, from the same engine in Node, for the stored pack and after four Page Ups.
+    const said = (p: Plan) => {
+      const v = verdictView(resultsToJson(simulate(p)))
+      return `${v.headline} ${v.detail}`
+    }
+    const stored = said(longPlan)
+    const capacityAh = (longPlan.battery.capacityAh ?? 0) + 4 * 50
+    const tried = said(applyWhatIf(longPlan, { capacityAh }))
+    expect(tried).not.toBe(stored)
+
+    const { page, context } = await signedInPage(VIEWPORTS.desktop)
+    await page.goto(`${server.url}/scenarios/${longId}/outlook`)
+    const verdict = page.locator('[data-test="verdict"]')
+    await verdict.waitFor({ timeout: 60_000 })
+    const text = async () => {
+      const v = page.locator('[data-test="verdict"]')
+      return `${await v.locator('[data-test="verdict-headline"]').innerText()} ${await v.locator('p').first().innerText()}`
+    }
+    await expect.poll(text, { timeout: 30_000 }).toBe(stored)
+    const slider = page.locator('[data-test="try-capacity"]')
+    await slider.focus()
+    // Four presses without waiting: runs still in flight hold the later moves back, the last one wins.
+    for (let i = 0; i < 4; i++) await page.keyboard.press('PageUp')
+    expect(await page.locator('input[data-test="try-capacity-input"]').inputValue()).toBe(String(capacityAh))
+    await expect.poll(text, { timeout: 30_000 }).toBe(tried)
+    expect(await page.locator('[data-test="whatif-error"]').count()).toBe(0)
+    // The figures came back from the trip worker (useTripRuns marks each arrival).
+    const arrivals = await page.evaluate(() => performance.getEntriesByName('ow-result-received').length)
+    expect(arrivals).toBeGreaterThanOrEqual(2)
+    // Back to stored shows the stored figures again.
+    await page.locator('[data-test="try-reset"]').click()
+    await expect.poll(text, { timeout: 30_000 }).toBe(stored)
     await context.close()
   })
 
