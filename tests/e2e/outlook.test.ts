@@ -298,6 +298,7 @@ describe('Outlook and Side by side in Chromium', { timeout: 240_000 }, () => {
     // The figures came back from the trip worker (useTripRuns marks each arrival).
     const arrivals = await page.evaluate(() => performance.getEntriesByName('ow-result-received').length)
     expect(arrivals).toBeGreaterThanOrEqual(2)
+    await screenshot(page, 'outlook-long-trip-change')
     // Back to stored shows the stored figures again.
     await page.locator('[data-test="try-reset"]').click()
     await expect.poll(text, { timeout: 30_000 }).toBe(stored)
