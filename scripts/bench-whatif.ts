@@ -28,7 +28,10 @@
  * page's thread spent its time by function (`--profile-total` adds inclusive times, `--profile=<file>`
  * keeps the profile); `--trace[=<file>]` records a Chrome trace and prints a per-move breakdown by trace
  * event (script, style, layout, paint, commit), optionally keeping the trace for the performance panel;
- * `--moves=<n>` presses n times a pass instead of 40; `--days=<n>` makes the trip n days long. To compare
+ * `--moves=<n>` presses n times a pass instead of 40; `--days=<n>` makes the trip n days long;
+ * `--per-move` adds every move's time in order (`perMoveMs`); `--sample-us=<n>` sets --profile's sampling
+ * interval (200 µs unless told). Before the first press the bench waits, as a person reading the verdict
+ * would, until the page has warmed the engine (the `ow-warm` mark, `warmUpAfterMs` after the figures). To compare
  * with another version, build it elsewhere (`git worktree add`, then `npx vite build --outDir <dir>`) and
  * pass `--dist=<dir>`. The last line is one JSON object.
  */
@@ -53,6 +56,12 @@ const FIRST_MOVES = 3
 const FRAME_MS = 1000 / 60
 /** Pause between two presses. [ms] */
 const PAUSE_MS = 120
+
+/** --profile's sampling interval (`--sample-us=<n>`, e.g. 50 to see a single move). [µs] */
+const sampleArg = process.argv.find((a) => a.startsWith('--sample-us='))
+const SAMPLE_US = sampleArg ? Math.max(10, Number(sampleArg.slice('--sample-us='.length)) || 200) : 200
+
+const PER_MOVE = process.argv.includes('--per-move')
 
 const distArg = process.argv.find((a) => a.startsWith('--dist='))
 const dist = distArg ? resolve(distArg.slice('--dist='.length)) : join(ROOT, 'dist')
@@ -159,6 +168,13 @@ try {
   await page.goto(`${server.url}/scenarios/${scenarioId}/outlook`)
   await page.locator('[data-test="verdict"]').waitFor({ timeout: 60_000 })
   await page.locator('[data-test="download-json"]:not([disabled])').waitFor({ timeout: 60_000 })
+  // The page warms the engine in idle time once the figures are on show (WARM_RUNS in useTripRuns.ts), well
+  // before a person has read the verdict and reached for a control; a trip run in the trip worker has none.
+  const warmWait = Date.now()
+  const warm = await page
+    .waitForFunction(() => performance.getEntriesByName('ow-warm').length > 0, null, { timeout: 5000 })
+    .then(() => Date.now() - warmWait)
+    .catch(() => null)
   const slider = page.locator('[data-test="try-capacity"]')
   await slider.focus()
   const profile = process.argv.some((a) => a.startsWith('--profile'))
@@ -171,7 +187,7 @@ try {
     })
   if (cdp) {
     await cdp.send('Profiler.enable')
-    await cdp.send('Profiler.setSamplingInterval', { interval: 200 })
+    await cdp.send('Profiler.setSamplingInterval', { interval: SAMPLE_US })
     await cdp.send('Profiler.start')
   }
   type Move = { start: number; busy: number; frame: number }
@@ -292,7 +308,11 @@ try {
     // --trace=<file> also keeps the trace, to open in the browser's performance panel.
     if (traceArg!.includes('=')) writeFileSync(traceArg!.slice('--trace='.length), buf)
     printTraceBreakdown(JSON.parse(buf.toString()), [
-      ['top of the page, first moves', 0, FIRST_MOVES],
+      ...Array.from({ length: Math.min(FIRST_MOVES, MOVES) }, (_, i): [string, number, number] => [
+        `top of the page, move ${i + 1}`,
+        i,
+        i + 1,
+      ]),
       ['top of the page', 0, MOVES],
       ['scrolled to the charts', MOVES, 2 * MOVES],
     ])
@@ -358,6 +378,8 @@ try {
       steadyMedianMs: steady.length ? figures(steady).median : null,
       steadyP95Ms: steady.length ? figures(steady).p95 : null,
       steadyWithinOneFrameP95: steady.length > 0 && q(sorted(steady), 0.95) <= FRAME_MS,
+      // --per-move: every move's time until shown (and charts drawn), in order.
+      ...(PER_MOVE ? { perMoveMs: done.map(r1) } : {}),
     }
   }
   const capacityEnd = await page.locator('input[data-test="try-capacity-input"]').inputValue()
@@ -371,6 +393,8 @@ try {
   out = {
     bench: 'whatif',
     tripDays: plan.trip.days,
+    // From the figures on show until the page had warmed the engine (null: no warm-up, a long trip). [ms]
+    warmUpAfterMs: warm,
     ...t,
     frameBudgetMs: r1(FRAME_MS),
     chartsInView: { charts: inView.onScreen.length, ...stats(inView) },

@@ -10,8 +10,20 @@ import { afterEach, beforeEach, describe, expect, it, vi } from 'vitest'
 import { effectScope, nextTick, shallowRef, type EffectScope } from 'vue'
 import { resultsToJson, simulate, type Plan } from '../../shared/engine'
 import type { EngineJob, EngineReply } from '../../src/workers/engine.worker'
-import { PENDING_SHOW_MS, useTripRuns, type SimulationJson } from '../../src/composables/useTripRuns'
+import {
+  PENDING_SHOW_MS,
+  WARM_RUNS,
+  useTripRuns,
+  type SimulationJson,
+} from '../../src/composables/useTripRuns'
 import { examplePlan } from '../api/results.fixture'
+
+// The engine itself, with its trip runs counted (vitest's vi.mock; every call goes to the real simulate).
+vi.mock('../../shared/engine', async (importOriginal) => {
+  const engine = await importOriginal<typeof import('../../shared/engine')>()
+  return { ...engine, simulate: vi.fn(engine.simulate) }
+})
+const runsOfEngine = () => vi.mocked(simulate).mock.calls.length
 
 class FakeWorker {
   static all: FakeWorker[] = []
@@ -149,6 +161,51 @@ describe('trip runs of the Outlook', () => {
     await nextTick()
     worker().done(2, '310')
     expect(runs.error.value).toBeNull()
+  })
+
+  it('warms the engine in idle time with throwaway runs of the stored plan, the figures on show untouched', async () => {
+    vi.useFakeTimers()
+    const marks = vi.spyOn(performance, 'mark')
+    const stored = examplePlan('summer-month-andalusia')
+    const before = runsOfEngine()
+    const { runs } = start(stored)
+    const shown = runs.result.value
+    expect(runsOfEngine() - before).toBe(1)
+    // One run per idle period (a 50 ms timer where requestIdleCallback is missing, as here).
+    vi.advanceTimersByTime(60)
+    expect(runsOfEngine() - before).toBe(2)
+    await vi.runAllTimersAsync()
+    expect(runsOfEngine() - before).toBe(1 + WARM_RUNS)
+    expect(vi.mocked(simulate).mock.calls.at(-1)![0]).toBe(stored)
+    expect(runs.result.value).toBe(shown)
+    expect(marks.mock.calls.filter(([name]) => name === 'ow-warm')).toHaveLength(1)
+    // Later moves do not warm again.
+    await vi.runAllTimersAsync()
+    expect(runsOfEngine() - before).toBe(1 + WARM_RUNS)
+  })
+
+  it('stops warming when another plan is stored, and never warms for a trip run in the worker', async () => {
+    vi.useFakeTimers()
+    const first = examplePlan('summer-month-andalusia')
+    const before = runsOfEngine()
+    const { stored, plan } = start(first)
+    vi.advanceTimersByTime(60)
+    expect(runsOfEngine() - before).toBe(2)
+    // Another scenario opens in the same page: its run is the only one; the warm-up of the first stops.
+    const next = withCapacity(first, 260)
+    stored.value = next
+    plan.value = next
+    await nextTick()
+    await vi.runAllTimersAsync()
+    expect(runsOfEngine() - before).toBe(3)
+    scope?.stop()
+
+    const long = longTrip()
+    const atLong = runsOfEngine()
+    start(long)
+    worker().done(0, 'stored')
+    await vi.runAllTimersAsync()
+    expect(runsOfEngine()).toBe(atLong)
   })
 
   it('runs the latest move on the page when the worker dies, and every move after it', async () => {

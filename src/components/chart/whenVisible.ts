@@ -17,13 +17,13 @@ type IdleWindow = {
   cancelIdleCallback?: (id: number) => void
 }
 /** requestIdleCallback where there is one (not in Safari), else a short timer. */
-function requestIdle(cb: () => void): number {
+export function requestIdle(cb: () => void): number {
   const w = globalThis as IdleWindow
   return w.requestIdleCallback
     ? w.requestIdleCallback(cb, { timeout: IDLE_TIMEOUT_MS })
     : (setTimeout(cb, 50) as unknown as number)
 }
-function cancelIdle(id: number): void {
+export function cancelIdle(id: number): void {
   const w = globalThis as IdleWindow
   if (w.cancelIdleCallback) w.cancelIdleCallback(id)
   else clearTimeout(id)
