@@ -51,6 +51,27 @@ export async function screenshot(page: Page, name: string): Promise<string> {
   const dir = process.env.OHMWARD_ARTIFACTS ?? join(process.cwd(), 'artifacts')
   mkdirSync(dir, { recursive: true })
   const path = join(dir, `${name}.png`)
-  await page.screenshot({ path, fullPage: true })
+  // A full-page shot as a person scrolling down would see it: from the top (Chromium draws fixed and sticky
+  // parts where the window is scrolled to, so a shot taken further down shows the header mid-page), and with
+  // the parts the page lets the browser skip while off screen (content-visibility, the Outlook while a
+  // control moves) drawn. The scroll position is put back afterwards.
+  const scrolledTo = await page.evaluate(async () => {
+    const y = window.scrollY
+    const style = document.createElement('style')
+    style.id = 'ow-screenshot-style'
+    style.textContent = '* { content-visibility: visible !important; }'
+    document.head.append(style)
+    window.scrollTo(0, 0)
+    await new Promise((r) => requestAnimationFrame(() => requestAnimationFrame(r)))
+    return y
+  })
+  try {
+    await page.screenshot({ path, fullPage: true })
+  } finally {
+    await page.evaluate((y) => {
+      document.getElementById('ow-screenshot-style')?.remove()
+      window.scrollTo(0, y)
+    }, scrolledTo)
+  }
   return path
 }
