@@ -154,8 +154,13 @@ export const VehicleInputSchema = z.strictObject({
   systemVoltageV: z.literal(SYSTEM_VOLTAGES_V, { error: 'must be 12, 24 or 48' }),
   notes: NotesSchema.optional(),
 })
-/** POST /api/vehicles. The creator becomes its owner. */
-export const VehicleCreateSchema = VehicleInputSchema
+/**
+ * POST /api/vehicles. The creator becomes its owner. `crewFrom`: share the new vehicle with the crew of that
+ * vehicle (one the creator can change), as a what-if saved on a copy of a shared van stays with the people
+ * who share it: its owner and editors become editors, its viewers viewers (advisors are not carried over;
+ * they read a vehicle for a review).
+ */
+export const VehicleCreateSchema = VehicleInputSchema.extend({ crewFrom: IdSchema.optional() })
 export type VehicleCreate = z.infer<typeof VehicleCreateSchema>
 
 /** PATCH /api/vehicles/:vehicleId */

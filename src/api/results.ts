@@ -77,7 +77,8 @@ export interface SavedWhatIf {
 /**
  * Keep a what-if. A trip-only change (driving, night low, sky) becomes a copy of the scenario in the same
  * vehicle. A pack or array change cannot live in a scenario (both are the vehicle's equipment), so the
- * vehicle is copied with the tried pack and array, and the scenario is created on the copy.
+ * vehicle is copied with the tried pack and array, and the scenario is created on the copy; a copy made by
+ * someone who can change the original is shared with the original's crew (`crewFrom`).
  */
 export async function saveWhatIf(input: SaveWhatIfInput): Promise<SavedWhatIf> {
   const { scenario, plan, name } = input
@@ -101,6 +102,8 @@ export async function saveWhatIf(input: SaveWhatIfInput): Promise<SavedWhatIf> {
       kind: original.kind,
       systemVoltageV: original.systemVoltageV,
       notes: `Copied from “${original.name}” to keep a tried change from the Outlook of “${scenario.name}”.`,
+      // Whoever shares the original (a partner) shares the copy; a reader's copy stays their own.
+      ...(canWrite ? { crewFrom: original.id } : {}),
     }),
   )
   const vid = encodeURIComponent(vehicle.id)

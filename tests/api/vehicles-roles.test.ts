@@ -148,6 +148,59 @@ describe.each(['owner', 'editor', 'viewer', 'advisor'] as const)('%s', (role) =>
   })
 })
 
+describe('a copy shared with the crew of the vehicle it was copied from (crewFrom)', () => {
+  const copyOf = { ...vehicleInput, name: 'Test van (tried 330 Ah)', crewFrom: '' }
+  const roleOn = async (copyId: string, who: Who) => {
+    const res = await call(people[who])('get', `/api/vehicles/${copyId}`)
+    return res.status === 200 ? (res.body.myRole as string) : res.status
+  }
+
+  it('made by the owner: editors stay editors, viewers viewers; advisors and outsiders do not see it', async () => {
+    const res = await call(people.owner)('post', '/api/vehicles', { ...copyOf, crewFrom: vehicleId }).expect(
+      201,
+    )
+    const copyId = res.body.id as string
+    expect(await roleOn(copyId, 'owner')).toBe('owner')
+    expect(await roleOn(copyId, 'editor')).toBe('editor')
+    expect(await roleOn(copyId, 'viewer')).toBe('viewer')
+    expect(await roleOn(copyId, 'advisor')).toBe(404)
+    expect(await roleOn(copyId, 'stranger')).toBe(404)
+    await call(people.viewer)('patch', `/api/vehicles/${copyId}`, { version: 1, name: 'x' }).expect(403)
+    await call(people.editor)('put', `/api/vehicles/${copyId}/battery`, {
+      version: 0,
+      battery: lfpBattery,
+    }).expect(200)
+  })
+
+  it('made by an editor: the editor owns the copy and the original owner edits it', async () => {
+    const res = await call(people.editor)('post', '/api/vehicles', { ...copyOf, crewFrom: vehicleId }).expect(
+      201,
+    )
+    const copyId = res.body.id as string
+    expect(await roleOn(copyId, 'editor')).toBe('owner')
+    expect(await roleOn(copyId, 'owner')).toBe('editor')
+    expect(await roleOn(copyId, 'viewer')).toBe('viewer')
+  })
+
+  it.each(['viewer', 'advisor', 'stranger'] as const)(
+    'is refused to a %s of the original, naming the field, and nothing is created',
+    async (who) => {
+      const as = call(people[who])
+      const before = (await as('get', '/api/vehicles').expect(200)).body.total
+      const res = await as('post', '/api/vehicles', { ...copyOf, crewFrom: vehicleId }).expect(400)
+      expect(res.body.error.fields.crewFrom[0]).toMatch(/vehicle you can change/)
+      expect((await as('get', '/api/vehicles').expect(200)).body.total).toBe(before)
+    },
+  )
+
+  it('refuses a crewFrom that is not an id', async () => {
+    const res = await call(people.owner)('post', '/api/vehicles', { ...copyOf, crewFrom: 'lingon' }).expect(
+      400,
+    )
+    expect(res.body.error.fields.crewFrom[0]).toMatch(/UUID/)
+  })
+})
+
 describe('a non-member', () => {
   it.each(READS)('gets 404 for the %s', async (_what, path) => {
     const res = await call(people.stranger)('get', path()).expect(404)

@@ -5,6 +5,7 @@ import { launchBrowser, newPage, screenshot, VIEWPORTS } from '../support/browse
 import { startTestServer, type RunningServer } from '../support/server'
 import { createUser, type TestUser } from '../support/factories'
 import { examplePlan, storePlan, type Send } from '../api/results.fixture'
+import { addMember } from '../api/vehicles.fixtures'
 import { resultsToJson, simulate, type Plan } from '../../shared/engine'
 import { applyWhatIf } from '../../src/components/outlook/whatIf'
 import { verdictView } from '../../src/components/outlook/verdict'
@@ -79,6 +80,7 @@ describe('Outlook and Side by side in Chromium', { timeout: 240_000 }, () => {
   let server: RunningServer
   let browser: Browser
   let user: TestUser
+  let partner: TestUser
   let winterId: string
   let winterVehicleId: string
   let summerId: string
@@ -123,6 +125,9 @@ describe('Outlook and Side by side in Chromium', { timeout: 240_000 }, () => {
     })
     winterId = winter.scenarioId
     winterVehicleId = winter.vehicleId
+    // Her partner shares the winter van (straight in the database; invitations are tested elsewhere).
+    partner = await createUser(server.ctx, { displayName: 'Tomas Test' })
+    await addMember(server.ctx, winterVehicleId, partner.id, 'editor')
     summerId = (
       await storePlan(s, examplePlan('summer-month-andalusia'), {
         vehicle: 'Blue van (summer kit)',
@@ -252,6 +257,10 @@ describe('Outlook and Side by side in Chromium', { timeout: 240_000 }, () => {
     const name = page.locator('input[data-test="save-name"]')
     await name.waitFor()
     await name.fill(`Winter week, ${capacity} Ah`)
+    // The pack belongs to the van: the new scenario goes on a copy of it, shared with whoever shares the van.
+    expect(await page.locator('.q-dialog').innerText()).toContain(
+      'Everyone who shares the original shares the copy',
+    )
     await page.locator('[data-test="save-confirm"]').click()
     await page.waitForURL(
       (url) => /\/scenarios\/[^/]+\/outlook$/.test(url.pathname) && !url.pathname.includes(winterId),
@@ -264,6 +273,10 @@ describe('Outlook and Side by side in Chromium', { timeout: 240_000 }, () => {
     // The stored original is unchanged.
     const original = await (await page.request.get(`${server.url}/api/scenarios/${winterId}/results`)).json()
     expect(original.results.verdict.status).toBe('short')
+    // The partner reads the saved change (it is on the copy of the van they share) and may change it.
+    const asPartner = await send(partner.cookie)('GET', `/api/scenarios/${savedId}`)
+    expect(asPartner.status).toBe(200)
+    expect(asPartner.body.myRole).toBe('editor')
     await context.close()
   })
 

@@ -1,5 +1,5 @@
 /** Vehicles and their members: list, create, read, change, delete. */
-import { and, desc, eq, sql } from 'drizzle-orm'
+import { and, desc, eq, inArray, ne, sql } from 'drizzle-orm'
 import type {
   Member,
   Page,
@@ -13,9 +13,9 @@ import type {
 } from '../../../shared/schemas/vehicles'
 import type { Db } from '../../db/client'
 import { users, vehicleMemberships, vehicles } from '../../db/schema/index'
-import { notFound } from '../../errors'
+import { notFound, validationFailed } from '../../errors'
 import { preparedFor } from '../../db/prepared'
-import { requireVehicleRole } from './access'
+import { loadMembership, requireVehicleRole, roleAllows } from './access'
 import {
   changedKeys,
   iso,
@@ -150,14 +150,43 @@ export async function listVehicles(db: Db, actor: Actor, page: PageQuery): Promi
 
 /** Create a vehicle; the creator becomes its owner. */
 export async function createVehicle(db: Db, actor: Actor, input: VehicleCreate): Promise<VehicleDetail> {
+  const { crewFrom, ...fields } = input
+  if (crewFrom) {
+    const role = await loadMembership(db, actor.id, crewFrom)
+    if (!role || !roleAllows(role.role, 'write'))
+      throw validationFailed({
+        crewFrom: ['must be a vehicle you can change (its crew is shared with the new vehicle)'],
+      })
+  }
   return db.transaction(async (tx) => {
     const [v] = await tx
       .insert(vehicles)
-      .values({ ...input, notes: input.notes ?? '', createdBy: actor.id, updatedBy: actor.id })
+      .values({ ...fields, notes: fields.notes ?? '', createdBy: actor.id, updatedBy: actor.id })
       .returning()
     await tx
       .insert(vehicleMemberships)
       .values({ vehicleId: v!.id, userId: actor.id, role: 'owner', updatedBy: actor.id })
+    if (crewFrom) {
+      const crew = await tx
+        .select({ userId: vehicleMemberships.userId, role: vehicleMemberships.role })
+        .from(vehicleMemberships)
+        .where(
+          and(
+            eq(vehicleMemberships.vehicleId, crewFrom),
+            ne(vehicleMemberships.userId, actor.id),
+            inArray(vehicleMemberships.role, ['owner', 'editor', 'viewer']),
+          ),
+        )
+      if (crew.length)
+        await tx.insert(vehicleMemberships).values(
+          crew.map((m) => ({
+            vehicleId: v!.id,
+            userId: m.userId,
+            role: m.role === 'viewer' ? ('viewer' as const) : ('editor' as const),
+            updatedBy: actor.id,
+          })),
+        )
+    }
     await recordHistory(tx, {
       vehicleId: v!.id,
       entity: 'vehicle',
