@@ -102,6 +102,21 @@ describe('Pack needed and Solar needed', () => {
     expect(w.emitted('try')).toEqual([[{ arrayWp: analysis.solarNeeded.peakPowerWp, capacityAh: need }]])
   })
 
+  it('holds their Try buttons while the sizing figures belong to an older version of the change', async () => {
+    const { w } = mountFigures(winter())
+    await w.setProps({ stale: true })
+    const buttons = ['try-pack-needed', 'try-pack-margin', 'try-solar-needed'].map((t) =>
+      w.get(`[data-test="${t}"]`),
+    )
+    for (const b of buttons) {
+      expect(b.attributes('disabled')).toBeDefined()
+      await b.trigger('click')
+    }
+    expect(w.emitted('try')).toBeUndefined()
+    await w.setProps({ stale: false })
+    for (const b of buttons) expect(b.attributes('disabled')).toBeUndefined()
+  })
+
   it('says “See” instead of “Change” to someone who may only read the vehicle', () => {
     const { w } = mountFigures(winter(), false)
     expect(words(w.get('[data-test="change-battery"]'))).toBe('See the battery bank')

@@ -155,7 +155,9 @@ describe('the key figures', () => {
     expect(lowest.best).toEqual([winter.summary.lowestSocFraction > summer.summary.lowestSocFraction ? 0 : 1])
     expect(lowest.texts.every((t) => / %$/.test(t))).toBe(true)
     const heater = rows.find((r) => r.key === 'heater')!
-    expect(heater.best).toEqual([1]) // the summer trip needs no heater
+    // Unranked: the winter pad's energy is not worse than the summer's none (a pack that runs short sheds it).
+    expect(heater.texts[1]).toBe('0 Wh')
+    expect(heater.best).toEqual([])
     expect(rows.find((r) => r.key === 'days')!.best).toEqual([])
     expect(rows.find((r) => r.key === 'verdict')!.texts[0]).toMatch(/^Runs short/)
   })

@@ -141,10 +141,12 @@ export function compareRows(results: AnalysisJson[]): CompareRow[] {
       rs.map((r) => r.totals.endStoredWh - r.totals.startStoredWh),
       (v) => (v !== null && Math.round(v) > 0 ? `+${formatEnergy(v)}` : formatEnergy(v)),
     ),
+    // Not ranked: less heater energy is not better when it is less because the pad was shed at the floor
+    // (a small pack that runs short heats less than a bigger one that carries).
     row(
       'heater',
       'Heater pad',
-      'lower',
+      null,
       rs.map((r) => r.summary.heaterWh),
       formatEnergy,
     ),
