@@ -126,3 +126,19 @@ describe('state-of-charge chart', () => {
     expect(ranges()).toEqual([])
   })
 })
+
+describe('daily energy chart', () => {
+  const labels = (input: ChartInputs['daily']) =>
+    (drawnFrom('daily', input).data.datasets as { label: string }[]).map((d) => d.label)
+  it('shows only the series these days have', () => {
+    const noHeater = { days: dailyInput.days.map((d) => ({ ...d, heaterWh: 0 })) }
+    expect(labels(noHeater)).toEqual(['In: Solar', 'Out: loads'])
+  })
+  it('keeps the series other charts beside it have, so the legends and plot areas match (Side by side)', () => {
+    const noHeater = { days: dailyInput.days.map((d) => ({ ...d, heaterWh: 0 })) }
+    const kept = labels({ ...noHeater, keep: ['heater', 'shore', 'solar'] })
+    expect(kept).toEqual(['In: Solar', 'In: Shore power', 'Out: loads', 'Out: heater pad'])
+    const { options } = drawnFrom('daily', { ...noHeater, yMaxWh: 4800 })
+    expect((options.scales!.y as { max?: number }).max).toBe(4800)
+  })
+})

@@ -251,6 +251,14 @@ describe('Outlook and Side by side in Chromium', { timeout: 240_000 }, () => {
     expect(status === 'carries' || status === 'tight').toBe(true)
     const capacity = Number(await page.locator('input[data-test="try-capacity-input"]').inputValue())
     expect(capacity).toBeGreaterThan(200)
+    // Each number box beside a slider is named by its row's label, not only by its unit.
+    for (const [name, id] of [
+      [/^Pack capacity/, 'try-capacity-input'],
+      [/^Solar array/, 'try-array-input'],
+      [/^Driving per day/, 'try-driving-input'],
+      [/^Night low/, 'try-night-input'],
+    ] as const)
+      expect(await page.getByRole('spinbutton', { name }).getAttribute('id')).toBe(id)
     expect(await page.locator('[data-test="verdict-headline"]').innerText()).toMatch(/^Carries the trip/)
 
     await page.locator('[data-test="try-save"]').click()

@@ -68,6 +68,11 @@ export interface DailyInput {
   days: DailyEnergyRow[]
   /** Same top of scale for charts shown side by side. [Wh] */
   yMaxWh?: number
+  /**
+   * Series shown even where these days have none (charts side by side: the union of every chart's series,
+   * so their legends, and with them their plot areas, are the same). Source kinds and `heater`.
+   */
+  keep?: string[]
 }
 
 export interface AppliancesInput {
@@ -339,12 +344,12 @@ function dailyChart(): ChartKind<DailyInput> {
   const loadsPattern = hatch('#2b7fae', SERIES.loads)
   const heaterPattern = hatch('#8a3c00', SERIES.heater)
   return {
-    data({ days }) {
+    data({ days, keep }) {
       const labels = days.map((d) => `day ${d.day + 1}`)
       const datasets: ChartData<'bar', number[], string>['datasets'] = []
       for (const k of SOURCE_KINDS) {
         const values = days.map((d) => d.inWh[k])
-        if (values.every((v) => v <= 0.5)) continue
+        if (values.every((v) => v <= 0.5) && !keep?.includes(k)) continue
         datasets.push({
           label: `In: ${SOURCE_LABELS[k]}`,
           data: values,
@@ -360,7 +365,7 @@ function dailyChart(): ChartKind<DailyInput> {
         borderWidth: 1,
         stack: 'out',
       })
-      if (days.some((d) => d.heaterWh > 0.5))
+      if (days.some((d) => d.heaterWh > 0.5) || keep?.includes('heater'))
         datasets.push({
           label: 'Out: heater pad',
           data: days.map((d) => d.heaterWh),
