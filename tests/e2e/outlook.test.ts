@@ -9,6 +9,7 @@ import { addMember } from '../api/vehicles.fixtures'
 import { resultsToJson, simulate, type Plan } from '../../shared/engine'
 import { applyWhatIf } from '../../src/components/outlook/whatIf'
 import { verdictView } from '../../src/components/outlook/verdict'
+import { formatEnergy } from '../../src/components/outlook/format'
 import { SYNC_MAX_DAYS } from '../../src/composables/useOutlook'
 
 /** Deep comparison: strings, booleans, nulls and shapes exactly; numbers to 1e-9 relative. */
@@ -187,6 +188,16 @@ describe('Outlook and Side by side in Chromium', { timeout: 240_000 }, () => {
     }
     expect(browserResults.verdict.status).toBe(serverAnswer.results.verdict.status)
     expect(browserResults.packNeeded.capacityAh).toBe(serverAnswer.results.packNeeded.capacityAh)
+    // The winter pack runs short, so loads were shed: "Where the energy goes" (planned use) says how much of
+    // it was not served and what the run used, the same figures as the energy balance.
+    const { unservedWh, energyOutWh } = serverAnswer.results.summary as {
+      unservedWh: number
+      energyOutWh: number
+    }
+    expect(unservedWh).toBeGreaterThan(0.5)
+    const goes = await page.locator('[data-test="chart-appliances"]').innerText()
+    expect(goes).toContain(`${formatEnergy(unservedWh)} of the planned use could not be served`)
+    expect(goes).toContain(`more than the ${formatEnergy(energyOutWh)} the run used`)
 
     // Every figure has its unit, the cold caution sits with the heater figures, charts have table alternatives.
     expect(await page.locator('[data-test="figure-autonomy"]').innerText()).toMatch(/days?|day/)
