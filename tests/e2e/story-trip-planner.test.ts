@@ -226,6 +226,11 @@ describe('trip planner story', { timeout: 300_000 }, () => {
 
   it('someone outside the crew who gets the link sees neither trip', async () => {
     const { page, context } = await signedIn(outsider)
+    const asked: string[] = []
+    page.on('request', (r) => {
+      const m = /\/api\/scenarios\/([^/]+)\/results$/.exec(new URL(r.url()).pathname)
+      if (m) asked.push(m[1]!)
+    })
     await page.goto(shared)
     await page.locator('[role="alert"]').first().waitFor({ timeout: 60_000 })
     expect(await page.locator('[data-test="compare-table"]').count()).toBe(0)
@@ -243,6 +248,8 @@ describe('trip planner story', { timeout: 300_000 }, () => {
       /You cannot open 2 scenarios in this link\.\s+They do not exist, or they are not shared with you: on a vehicle whose crew you are not on\. Ask the person who sent the link to add you to that vehicle's crew/,
     )
     await settled(page)
+    // Each scenario's results were asked for once (the scenario list arriving did not ask again).
+    expect(asked.sort()).toEqual([winterId, summerId].sort())
     await screenshot(page, 'story-planner-3-outsider')
     await context.close()
   })
