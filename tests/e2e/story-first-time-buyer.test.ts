@@ -253,7 +253,7 @@ describe('first-time buyer story', { timeout: 300_000 }, () => {
     const col = (name: string) => heads.findIndex((h) => h.startsWith(name))
     const lfpCol = col('Lithium (LFP)')
     const agmCol = col('AGM')
-    expect(heads[lfpCol]).toContain('yours')
+    expect(heads[lfpCol]).toContain('your chemistry')
     expect(await chem.locator('[data-test="chemistry-basis-needed"]').getAttribute('aria-pressed')).toBe(
       'true',
     )
