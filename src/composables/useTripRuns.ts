@@ -15,7 +15,7 @@
 import { onScopeDispose, ref, shallowRef, watch, type Ref, type ShallowRef } from 'vue'
 import { resultsToJson, simulate, type Jsonified, type Plan, type SimulationResult } from '@shared/engine'
 import type { EngineJob, EngineReply } from '../workers/engine.worker'
-import { cancelIdle, requestIdle } from '../components/chart/whenVisible'
+import { cancelIdle, requestIdle } from './idle'
 
 export type SimulationJson = Jsonified<SimulationResult>
 

@@ -4,31 +4,12 @@
  * what can be seen. Visible parts update at once, in the same task as the move.
  */
 import { onBeforeUnmount, onMounted, shallowRef, watch, type Ref, type ShallowRef } from 'vue'
+import { cancelIdle, requestIdle } from '../../composables/idle'
 
 /** How far outside the viewport a part still counts as visible, so it is current as it scrolls in. */
 const MARGIN = '50px 0px'
 /** A hidden part catches up once the controls have been still this long (not within a drag). [ms] */
 const QUIET_MS = 200
-/** Longest wait for idle time after that before a hidden part catches up anyway. [ms] */
-const IDLE_TIMEOUT_MS = 1000
-
-type IdleWindow = {
-  requestIdleCallback?: (cb: () => void, o?: { timeout: number }) => number
-  cancelIdleCallback?: (id: number) => void
-}
-/** requestIdleCallback where there is one (not in Safari), else a short timer. */
-export function requestIdle(cb: () => void): number {
-  const w = globalThis as IdleWindow
-  return w.requestIdleCallback
-    ? w.requestIdleCallback(cb, { timeout: IDLE_TIMEOUT_MS })
-    : (setTimeout(cb, 50) as unknown as number)
-}
-export function cancelIdle(id: number): void {
-  const w = globalThis as IdleWindow
-  if (w.cancelIdleCallback) w.cancelIdleCallback(id)
-  else clearTimeout(id)
-}
-
 /**
  * True between the browser's beforeprint and afterprint: everything follows at once (a part that gets new
  * input while printing, such as a chart inside a block that has just caught up, must not wait for idle time).
