@@ -7,6 +7,7 @@ import winterRaw from '../../data/examples/winter-week-lofoten.json?raw'
 import summerRaw from '../../data/examples/summer-month-andalusia.json?raw'
 import OutlookVerdict from '../../src/components/outlook/OutlookVerdict.vue'
 import OutlookFigures from '../../src/components/outlook/OutlookFigures.vue'
+import OutlookTryChange from '../../src/components/outlook/OutlookTryChange.vue'
 import { verdictView, type VerdictInput } from '../../src/components/outlook/verdict'
 import { applyWhatIf, whatIfBase } from '../../src/components/outlook/whatIf'
 import { compareRows } from '../../src/components/outlook/compare'
@@ -99,6 +100,29 @@ describe('the verdict', () => {
     expect(w.get('h2').text()).toBe('Runs short on day 3 at 03:00')
     expect(w.text()).toContain('with your change, not saved')
     expect(w.find('.q-icon').text()).toBe('battery_alert')
+  })
+
+  it('is repeated in "Try a change" when asked (the Verdict off screen), with the same words and icon', () => {
+    const base = whatIfBase(example('winter-week-lofoten'))
+    const props = {
+      base,
+      whatIf: {},
+      prefs: { unitSystem: 'metric', temperatureUnit: 'C' } as const,
+      changed: true,
+      canSave: true,
+    }
+    const global = { plugins: [[Quasar, {}], pinia] as never }
+    expect(mount(OutlookTryChange, { props, global }).find('[data-test="try-answer"]').exists()).toBe(false)
+    const view = verdictView(made({ status: 'tight', lowest: 0.14 }))
+    const w = mount(OutlookTryChange, { props: { ...props, answer: view }, global })
+    const answer = w.get('[data-test="try-answer"]')
+    expect(answer.attributes('data-status')).toBe('tight')
+    expect(answer.attributes('role')).toBe('status')
+    expect(answer.get('[data-test="try-answer-headline"]').text()).toBe(
+      'Carries the trip, but only 4 % to spare',
+    )
+    expect(answer.text()).toContain('Lowest charge 14 % on day 4 at 06:00; the floor you set is 10 %.')
+    expect(answer.find('.q-icon').text()).toBe('warning')
   })
 
   it('flips from short to carries on the real engine when the winter van gets a bigger pack', () => {

@@ -418,6 +418,18 @@ describe('Outlook and Side by side in Chromium', { timeout: 240_000 }, () => {
       .toBeGreaterThan(drawnBefore)
     // The placeholder canvas shows the worker's new frame once the compositor has it.
     await expect.poll(pixels, { timeout: 2000 }).not.toBe(shown)
+    // Down at the charts the Verdict is out of view: the panel beside them repeats it, and the whole panel,
+    // its Save button too, still fits the window.
+    const answer = page.locator('[data-test="try-answer-headline"]')
+    await expect.poll(() => answer.isVisible()).toBe(true)
+    expect(await answer.innerText()).toBe(
+      (await page.locator('[data-test="verdict-headline"]').innerText()).trim(),
+    )
+    const save = (await page.locator('[data-test="try-save"]').boundingBox())!
+    expect(save.y + save.height).toBeLessThanOrEqual(860)
+    await page.screenshot({
+      path: `${process.env.OHMWARD_ARTIFACTS ?? 'artifacts'}/outlook-desktop-charts.png`,
+    })
     await context.close()
   })
 
@@ -492,6 +504,34 @@ describe('Outlook and Side by side in Chromium', { timeout: 240_000 }, () => {
     const overflow = await page.evaluate(() => document.documentElement.scrollWidth - window.innerWidth)
     if (overflow > 0) console.error('[overflow]', await wideElements(page))
     expect(overflow).toBeLessThanOrEqual(0)
+    // The Verdict is above "Try a change" on a phone: at the controls it is off screen, so the panel repeats
+    // the answer just below the header and it follows each move.
+    const headline = page.locator('[data-test="verdict-headline"]')
+    const answer = page.locator('[data-test="try-answer"]')
+    await page.evaluate(() => window.scrollTo(0, 0))
+    await expect.poll(() => answer.count()).toBe(0)
+    const night = page.locator('[data-test="try-night"]')
+    await night.scrollIntoViewIfNeeded()
+    await page.evaluate(() => window.scrollBy(0, 200))
+    await expect.poll(() => answer.isVisible()).toBe(true)
+    expect(await headline.isVisible()).toBe(true) // in the page, but scrolled away:
+    expect((await headline.boundingBox())!.y + (await headline.boundingBox())!.height).toBeLessThan(51)
+    const stuck = (await answer.boundingBox())!
+    expect(stuck.y).toBeGreaterThanOrEqual(50)
+    expect(stuck.y).toBeLessThan(60)
+    expect(await answer.locator('[data-test="try-answer-headline"]').innerText()).toBe(
+      (await headline.innerText()).trim(),
+    )
+    const before = await answer.locator('[data-test="try-answer-headline"]').innerText()
+    await page.locator('[data-test="try-capacity"]').focus()
+    await page.keyboard.press('End')
+    await expect.poll(() => answer.locator('[data-test="try-answer-headline"]').innerText()).not.toBe(before)
+    await night.scrollIntoViewIfNeeded()
+    await page.evaluate(() => window.scrollBy(0, 200))
+    expect(await answer.locator('[data-test="try-answer-headline"]').innerText()).toBe(
+      (await headline.innerText()).trim(),
+    )
+    await page.screenshot({ path: `${dir}/outlook-phone-try.png` })
     await page.goto(`${server.url}/side-by-side?s=${savedId ?? winterId},${summerId}`)
     await page.locator('[data-test="compare-table"]').waitFor({ timeout: 60_000 })
     await page.waitForTimeout(300)
