@@ -161,6 +161,10 @@ describe('Outlook and Side by side in Chromium', { timeout: 240_000 }, () => {
     expect(await page.locator('[data-test="verdict-headline"]').innerText()).toMatch(
       /^Runs short on day \d+ at \d\d:00$/,
     )
+    // The trip's dates read as they do in the scenario lists (2027-02-08, 7 days in the example).
+    expect(await page.locator('[data-test="trip-line"]').innerText()).toContain(
+      '8 Feb – 14 Feb 2027 · 7 days',
+    )
 
     // The sizing searches ran in the worker; then the page's results can be downloaded as JSON.
     const json = page.locator('[data-test="download-json"]')
