@@ -8,11 +8,8 @@ import { PlanSchema, type Plan } from '@shared/schemas/plan'
 import {
   ScenarioListSchema,
   ScenarioSchema,
-  VehicleDetailSchema,
   type Scenario,
   type ScenarioList,
-  type ScenarioUsage,
-  type VehicleDetail,
 } from '@shared/schemas/vehicles'
 import type { AnalysisJson } from '../composables/useEngineWorker'
 
@@ -29,9 +26,8 @@ export async function fetchReadableScenarios(signal?: AbortSignal): Promise<Scen
   return ScenarioListSchema.parse(await http.get('/scenarios?limit=100', signal)) as ScenarioList
 }
 
-export async function fetchVehicle(vehicleId: string): Promise<VehicleDetail> {
-  return VehicleDetailSchema.parse(await http.get(`/vehicles/${encodeURIComponent(vehicleId)}`))
-}
+/** POST /api/scenarios/:scenarioId/save-change answers with the new scenario and the copied vehicle's id. */
+const SavedChangeSchema = z.object({ scenario: ScenarioSchema, vehicleId: z.string() })
 
 /** GET /api/scenarios/:scenarioId/results: the engine's full analysis of the stored plan, as JSON. */
 export const ScenarioResultsSchema = z.object({
@@ -78,7 +74,8 @@ export interface SavedWhatIf {
  * Keep a what-if. A trip-only change (driving, night low, sky) becomes a copy of the scenario in the same
  * vehicle. A pack or array change cannot live in a scenario (both are the vehicle's equipment), so the
  * vehicle is copied with the tried pack and array, and the scenario is created on the copy; a copy made by
- * someone who can change the original is shared with the original's crew (`crewFrom`).
+ * someone who can change the original is shared with the original's crew. The copy is made by one request,
+ * POST /api/scenarios/:id/save-change, in one transaction: a failure leaves no half-made vehicle behind.
  */
 export async function saveWhatIf(input: SaveWhatIfInput): Promise<SavedWhatIf> {
   const { scenario, plan, name } = input
@@ -95,45 +92,11 @@ export async function saveWhatIf(input: SaveWhatIfInput): Promise<SavedWhatIf> {
     )
     return { scenarioId: saved.id, vehicleId: saved.vehicleId, vehicleCopied: false }
   }
-  const original = await fetchVehicle(scenario.vehicleId)
-  const vehicle = VehicleDetailSchema.parse(
-    await http.post('/vehicles', {
-      name: `${original.name} (${name})`.slice(0, 120),
-      kind: original.kind,
-      systemVoltageV: original.systemVoltageV,
-      notes: `Copied from “${original.name}” to keep a tried change from the Outlook of “${scenario.name}”.`,
-      // Whoever shares the original (a partner) shares the copy; a reader's copy stays their own.
-      ...(canWrite ? { crewFrom: original.id } : {}),
-    }),
+  // One request, one transaction on the server: a copy of the vehicle with the tried equipment and the new
+  // scenario on it, or nothing at all. Whoever shares the original (a partner) shares the copy when the saver
+  // can change the original; a reader's copy stays their own.
+  const saved = SavedChangeSchema.parse(
+    await http.post(`/scenarios/${encodeURIComponent(scenario.id)}/save-change`, { name, plan }),
   )
-  const vid = encodeURIComponent(vehicle.id)
-  await http.put(`/vehicles/${vid}/battery`, { version: 0, battery: plan.battery })
-  if (plan.inverter) await http.put(`/vehicles/${vid}/inverter`, { version: 0, inverter: plan.inverter })
-  const idMap = new Map<string, string>()
-  for (const a of plan.appliances) {
-    const { id, usage: _usage, ...fields } = a
-    void _usage
-    const rec = await http.post<{ id: string }>(`/vehicles/${vid}/appliances`, fields)
-    idMap.set(id, rec.id)
-  }
-  for (const s of plan.sources) {
-    const { id: _id, ...fields } = s
-    void _id
-    await http.post(`/vehicles/${vid}/sources`, fields)
-  }
-  const usage: ScenarioUsage = {}
-  for (const a of plan.appliances) {
-    const newId = idMap.get(a.id)
-    if (a.usage && newId) usage[newId] = a.usage
-  }
-  const created = ScenarioSchema.parse(
-    await http.post(`/vehicles/${vid}/scenarios`, {
-      name,
-      placeName: scenario.placeName || undefined,
-      notes: scenario.notes || undefined,
-      trip: plan.trip,
-      usage,
-    }),
-  )
-  return { scenarioId: created.id, vehicleId: vehicle.id, vehicleCopied: true }
+  return { scenarioId: saved.scenario.id, vehicleId: saved.vehicleId, vehicleCopied: true }
 }

@@ -5,13 +5,24 @@ import type { AppContext } from '../../context'
 import { requireUser } from '../../middleware/require-user'
 import { parse } from '../../validate'
 import { actorOf } from '../vehicles/actor'
-import { exportHourlyCsv, exportPlanFile, importPlanFile } from './exchange.service'
+import { parseInput } from '../vehicles/input'
+import { NameSchema } from '../../../shared/schemas/vehicles'
+import { exportHourlyCsv, exportPlanFile, importPlanFile, saveChangeOnVehicleCopy } from './exchange.service'
 
 /** `attachment; filename="…"; filename*=UTF-8''…` (ASCII fallback plus the exact name). */
 export function attachment(name: string): string {
   const ascii = name.replace(/[^\x20-\x7e]/g, '_').replace(/"/g, '')
   return `attachment; filename="${ascii}"; filename*=UTF-8''${encodeURIComponent(name)}`
 }
+
+/** The plan's own fields are checked by the engine's parsePlan (errors named `plan.…`). */
+const SaveChangeSchema = z.strictObject({
+  name: NameSchema,
+  plan: z.looseObject(
+    {},
+    { error: (iss) => (iss.input === undefined ? 'is required' : 'must be a plan (an object)') },
+  ),
+})
 
 const ImportQuerySchema = z.strictObject({
   name: z.string().trim().min(1, 'must not be empty').max(100, 'must be at most 100 characters').optional(),
@@ -23,6 +34,9 @@ const ImportQuerySchema = z.strictObject({
  * - GET  /scenarios/:scenarioId/hourly.csv  → hourly results, one row per hour
  * - POST /vehicles/:vehicleId/scenarios/import (body: the plan file's JSON; `?name=` renames the scenario)
  *        → 201 `{ scenario, equipmentCreated, upgradedFrom, notes }`; 400 `import_invalid` with `fields`
+ * - POST /scenarios/:scenarioId/save-change (body `{ name, plan }`: the tried plan from the Outlook)
+ *        → 201 `{ scenario, vehicleId }`: a copy of the scenario's vehicle with the plan's equipment and the
+ *        new scenario on it, in one transaction; 400 `validation_failed` with `fields` (`name`, `plan.…`)
  */
 export function exchangeRouter(ctx: AppContext): Router {
   const { db } = ctx
@@ -49,6 +63,12 @@ export function exchangeRouter(ctx: AppContext): Router {
     const q = parse(ImportQuerySchema, req.query)
     const result = await importPlanFile(db, actorOf(res), String(req.params.vehicleId), req.body, q.name)
     res.status(201).json(result)
+  })
+  r.post('/scenarios/:scenarioId/save-change', requireUser, async (req, res) => {
+    const input = parseInput(SaveChangeSchema, req.body)
+    res
+      .status(201)
+      .json(await saveChangeOnVehicleCopy(db, actorOf(res), String(req.params.scenarioId), input))
   })
   return r
 }

@@ -1,6 +1,8 @@
 /**
  * Plan files (issue 10): export a scenario's plan in our versioned file format, export its hourly results
- * as CSV, and import a plan file into a vehicle as a new scenario.
+ * as CSV, and import a plan file into a vehicle as a new scenario. Also the Outlook's "Save as a new
+ * scenario" for a tried pack or array, which puts a whole plan on a copy of the vehicle
+ * (saveChangeOnVehicleCopy).
  *
  * Equipment rule on import (docs/reports.md):
  * - a vehicle with no equipment yet (no battery bank, no inverter, no appliances, no charge sources) takes
@@ -12,8 +14,8 @@
 import { eq, sql } from 'drizzle-orm'
 import { makePlanFile, readPlanFile, type PlanFile } from '../../../shared/exchange/format'
 import { hourlyCsv } from '../../../shared/exchange/hourly-csv'
-import type { ApplianceUsage, Plan } from '../../../shared/schemas/plan'
-import type { Scenario } from '../../../shared/schemas/vehicles'
+import { parsePlan, type ApplianceUsage, type Plan } from '../../../shared/schemas/plan'
+import { LIST_LIMITS, type Scenario, type VehicleCreate } from '../../../shared/schemas/vehicles'
 import type { Db } from '../../db/client'
 import {
   appliances,
@@ -24,10 +26,11 @@ import {
   scenarios,
   vehicles,
 } from '../../db/schema/index'
-import { HttpError, notFound } from '../../errors'
-import { requireVehicleRole } from '../vehicles/access'
+import { HttpError, notFound, validationFailed } from '../../errors'
+import { requireVehicleRole, roleAllows } from '../vehicles/access'
+import { insertVehicle } from '../vehicles/vehicles.service'
 import { loadApplianceRows } from '../vehicles/appliances.service'
-import { quoted, recordHistory, type Actor } from '../vehicles/records'
+import { quoted, recordHistory, type Actor, type Tx } from '../vehicles/records'
 import { buildPlanForScenario } from '../scenarios/plan'
 import { getScenario, loadScenarioForUser } from '../scenarios/scenarios.service'
 import { resultsForPlan } from '../results/results.service'
@@ -85,6 +88,102 @@ export interface PlanImportResult {
 
 const norm = (s: string) => s.trim().toLocaleLowerCase('en')
 
+/**
+ * Inside a transaction: a plan's battery bank, inverter, appliances (in the plan's order) and charge sources
+ * on a vehicle that has none, with one history entry. Returns the plan's per-appliance usage keyed by the
+ * new appliances' ids.
+ */
+async function insertPlanEquipment(
+  tx: Tx,
+  actor: Actor,
+  vehicleId: string,
+  plan: Plan,
+  summary: string,
+): Promise<Record<string, ApplianceUsage>> {
+  const usage: Record<string, ApplianceUsage> = {}
+  await tx.insert(batteryBanks).values({ vehicleId, params: plan.battery, updatedBy: actor.id })
+  if (plan.inverter)
+    await tx.insert(inverters).values({ vehicleId, params: plan.inverter, updatedBy: actor.id })
+  // One by one, so the sequence numbers keep the plan's order.
+  for (const a of plan.appliances) {
+    const { id: _id, usage: u, ...params } = a
+    const [row] = await tx
+      .insert(appliances)
+      .values({ vehicleId, params, updatedBy: actor.id })
+      .returning({ id: appliances.id })
+    if (u) usage[row!.id] = u
+  }
+  for (const s of plan.sources) {
+    const { id: _id, ...params } = s
+    await tx.insert(chargeSources).values({ vehicleId, kind: s.kind, params, updatedBy: actor.id })
+  }
+  await recordHistory(tx, {
+    vehicleId,
+    entity: 'vehicle',
+    entityId: vehicleId,
+    action: 'import',
+    summary: `${summary}: battery bank, ${plan.appliances.length} appliances, ${plan.sources.length} charge sources${plan.inverter ? ', inverter' : ''}`,
+    after: {
+      battery: plan.battery,
+      inverter: plan.inverter ?? null,
+      appliances: plan.appliances,
+      sources: plan.sources,
+    },
+    actorId: actor.id,
+  })
+  return usage
+}
+
+/** Inside a transaction: a new scenario with its usage, and its history entry. Returns its id. */
+async function insertPlanScenario(
+  tx: Tx,
+  actor: Actor,
+  vehicleId: string,
+  s: {
+    name: string
+    notes: string
+    placeName: string
+    trip: Plan['trip']
+    usage: Record<string, ApplianceUsage>
+  },
+  summary: (quotedName: string) => string,
+): Promise<string> {
+  const [row] = await tx
+    .insert(scenarios)
+    .values({
+      vehicleId,
+      name: s.name,
+      notes: s.notes,
+      placeName: s.placeName,
+      trip: s.trip,
+      createdBy: actor.id,
+      updatedBy: actor.id,
+    })
+    .returning()
+  const entries = Object.entries(s.usage)
+  if (entries.length > 0) {
+    await tx.insert(scenarioApplianceUsage).values(
+      entries.map(([applianceId, u]) => ({
+        scenarioId: row!.id,
+        applianceId,
+        usage: u,
+        updatedBy: actor.id,
+      })),
+    )
+  }
+  await recordHistory(tx, {
+    vehicleId,
+    entity: 'scenario',
+    entityId: row!.id,
+    action: 'import',
+    summary: summary(quoted(row!.name)),
+    version: row!.version,
+    after: { name: row!.name, notes: row!.notes, placeName: row!.placeName, trip: row!.trip, usage: s.usage },
+    actorId: actor.id,
+  })
+  return row!.id
+}
+
 /** Import a plan file (already parsed JSON) into a vehicle as a new scenario. Write access. */
 export async function importPlanFile(
   db: Db,
@@ -121,36 +220,16 @@ export async function importPlanFile(
     const notes: string[] = []
     const usage: Record<string, ApplianceUsage> = {}
     if (empty) {
-      await tx.insert(batteryBanks).values({ vehicleId, params: plan.battery, updatedBy: actor.id })
-      if (plan.inverter)
-        await tx.insert(inverters).values({ vehicleId, params: plan.inverter, updatedBy: actor.id })
-      // One by one, so the sequence numbers keep the file's order.
-      for (const a of plan.appliances) {
-        const { id: _id, usage: u, ...params } = a
-        const [row] = await tx
-          .insert(appliances)
-          .values({ vehicleId, params, updatedBy: actor.id })
-          .returning({ id: appliances.id })
-        if (u) usage[row!.id] = u
-      }
-      for (const s of plan.sources) {
-        const { id: _id, ...params } = s
-        await tx.insert(chargeSources).values({ vehicleId, kind: s.kind, params, updatedBy: actor.id })
-      }
-      await recordHistory(tx, {
-        vehicleId,
-        entity: 'vehicle',
-        entityId: vehicleId,
-        action: 'import',
-        summary: `Took the equipment from the plan file of ${quoted(file.vehicle.name)}: battery bank, ${plan.appliances.length} appliances, ${plan.sources.length} charge sources${plan.inverter ? ', inverter' : ''}`,
-        after: {
-          battery: plan.battery,
-          inverter: plan.inverter ?? null,
-          appliances: plan.appliances,
-          sources: plan.sources,
-        },
-        actorId: actor.id,
-      })
+      Object.assign(
+        usage,
+        await insertPlanEquipment(
+          tx,
+          actor,
+          vehicleId,
+          plan,
+          `Took the equipment from the plan file of ${quoted(file.vehicle.name)}`,
+        ),
+      )
       notes.push(
         'This vehicle had no equipment yet, so it took the battery bank, appliances, charge sources and inverter from the file.',
       )
@@ -171,40 +250,20 @@ export async function importPlanFile(
           `No appliance here has the name of ${unmatched.map(quoted).join(', ')}: their usage in the file was not carried over.`,
         )
     }
-    const [row] = await tx
-      .insert(scenarios)
-      .values({
-        vehicleId,
+    const scenarioId = await insertPlanScenario(
+      tx,
+      actor,
+      vehicleId,
+      {
         name,
         notes: file.scenario.notes ?? '',
         placeName: file.scenario.placeName ?? '',
         trip: plan.trip,
-        createdBy: actor.id,
-        updatedBy: actor.id,
-      })
-      .returning()
-    const entries = Object.entries(usage)
-    if (entries.length > 0) {
-      await tx.insert(scenarioApplianceUsage).values(
-        entries.map(([applianceId, u]) => ({
-          scenarioId: row!.id,
-          applianceId,
-          usage: u,
-          updatedBy: actor.id,
-        })),
-      )
-    }
-    await recordHistory(tx, {
-      vehicleId,
-      entity: 'scenario',
-      entityId: row!.id,
-      action: 'import',
-      summary: `Imported scenario ${quoted(row!.name)} from a plan file`,
-      version: row!.version,
-      after: { name: row!.name, notes: row!.notes, placeName: row!.placeName, trip: row!.trip, usage },
-      actorId: actor.id,
-    })
-    return { scenarioId: row!.id, equipmentCreated: empty, notes }
+        usage,
+      },
+      (n) => `Imported scenario ${n} from a plan file`,
+    )
+    return { scenarioId, equipmentCreated: empty, notes }
   })
   if (read.upgradedFrom !== null)
     notes.push(`The file was in format version ${read.upgradedFrom} and was upgraded to the current version.`)
@@ -214,4 +273,66 @@ export async function importPlanFile(
     upgradedFrom: read.upgradedFrom,
     notes,
   }
+}
+
+export interface SavedChange {
+  scenario: Scenario
+  vehicleId: string
+}
+
+/**
+ * "Save as a new scenario" for a change that touches the vehicle's equipment (a tried pack or array), or
+ * from a vehicle the actor can only read: one transaction makes a copy of the scenario's vehicle with the
+ * tried plan's equipment and puts the new scenario (the plan's trip and usage) on it, so a failure leaves
+ * nothing behind. Read access to the scenario. When the actor can change the original vehicle, its crew
+ * shares the copy (createVehicle's `crewFrom`); otherwise the copy is the actor's own.
+ */
+export async function saveChangeOnVehicleCopy(
+  db: Db,
+  actor: Actor,
+  scenarioId: string,
+  input: { name: string; plan: unknown },
+): Promise<SavedChange> {
+  const { row, role } = await loadScenarioForUser(db, actor.id, scenarioId, 'read')
+  const read = parsePlan(input.plan)
+  if (!read.ok)
+    throw validationFailed(
+      Object.fromEntries(
+        Object.entries(read.fields).map(([k, v]) => [k === '(root)' ? 'plan' : `plan.${k}`, v]),
+      ),
+      'The tried plan is not valid.',
+    )
+  const plan = read.plan
+  const [original] = await db.select().from(vehicles).where(eq(vehicles.id, row.vehicleId)).limit(1)
+  if (!original) throw notFound('That scenario')
+  const crewFrom = roleAllows(role, 'write') ? original.id : undefined
+  const { vehicleId, newScenarioId } = await db.transaction(async (tx) => {
+    const v = await insertVehicle(
+      tx,
+      actor,
+      {
+        name: `${original.name} (${input.name})`.slice(0, LIST_LIMITS.nameMaxLength),
+        kind: original.kind,
+        systemVoltageV: original.systemVoltageV as VehicleCreate['systemVoltageV'],
+        notes: `Copied from ${quoted(original.name)} to keep a tried change from the Outlook of ${quoted(row.name)}.`,
+      },
+      crewFrom,
+    )
+    const usage = await insertPlanEquipment(
+      tx,
+      actor,
+      v.id,
+      plan,
+      `Took the tried equipment from the Outlook of ${quoted(row.name)}`,
+    )
+    const id = await insertPlanScenario(
+      tx,
+      actor,
+      v.id,
+      { name: input.name, notes: row.notes, placeName: row.placeName, trip: plan.trip, usage },
+      (n) => `Saved scenario ${n} from a tried change`,
+    )
+    return { vehicleId: v.id, newScenarioId: id }
+  })
+  return { scenario: await getScenario(db, actor, newScenarioId), vehicleId }
 }

@@ -26,6 +26,7 @@ import {
   userRefs,
   type Actor,
   type DbOrTx,
+  type Tx,
 } from './records'
 
 type VehicleRow = typeof vehicles.$inferSelect
@@ -148,56 +149,78 @@ export async function listVehicles(db: Db, actor: Actor, page: PageQuery): Promi
   return { items, total, limit: page.limit, offset: page.offset }
 }
 
+/**
+ * `crewFrom` must be a vehicle the actor can change (its crew is shared with a new vehicle); throws a 400
+ * naming the field otherwise.
+ */
+export async function checkCrewFrom(db: DbOrTx, actor: Actor, crewFrom: string | undefined): Promise<void> {
+  if (!crewFrom) return
+  const role = await loadMembership(db, actor.id, crewFrom)
+  if (!role || !roleAllows(role.role, 'write'))
+    throw validationFailed({
+      crewFrom: ['must be a vehicle you can change (its crew is shared with the new vehicle)'],
+    })
+}
+
+/**
+ * Inside a transaction: a new vehicle, its creator as owner and, with `crewFrom` (checked by checkCrewFrom),
+ * that vehicle's owner and editors as editors and its viewers as viewers (advisors are not carried over);
+ * the creation goes into the vehicle's history. Returns the new vehicle's row.
+ */
+export async function insertVehicle(
+  tx: Tx,
+  actor: Actor,
+  fields: Omit<VehicleCreate, 'crewFrom'>,
+  crewFrom?: string,
+): Promise<typeof vehicles.$inferSelect> {
+  const [v] = await tx
+    .insert(vehicles)
+    .values({ ...fields, notes: fields.notes ?? '', createdBy: actor.id, updatedBy: actor.id })
+    .returning()
+  await tx
+    .insert(vehicleMemberships)
+    .values({ vehicleId: v!.id, userId: actor.id, role: 'owner', updatedBy: actor.id })
+  if (crewFrom) {
+    const crew = await tx
+      .select({ userId: vehicleMemberships.userId, role: vehicleMemberships.role })
+      .from(vehicleMemberships)
+      .where(
+        and(
+          eq(vehicleMemberships.vehicleId, crewFrom),
+          ne(vehicleMemberships.userId, actor.id),
+          inArray(vehicleMemberships.role, ['owner', 'editor', 'viewer']),
+        ),
+      )
+    if (crew.length)
+      await tx.insert(vehicleMemberships).values(
+        crew.map((m) => ({
+          vehicleId: v!.id,
+          userId: m.userId,
+          role: m.role === 'viewer' ? ('viewer' as const) : ('editor' as const),
+          updatedBy: actor.id,
+        })),
+      )
+  }
+  await recordHistory(tx, {
+    vehicleId: v!.id,
+    entity: 'vehicle',
+    entityId: v!.id,
+    action: 'create',
+    summary: `Created vehicle ${quoted(v!.name)}`,
+    version: v!.version,
+    after: editableFields(v!),
+    actorId: actor.id,
+  })
+  return v!
+}
+
 /** Create a vehicle; the creator becomes its owner. */
 export async function createVehicle(db: Db, actor: Actor, input: VehicleCreate): Promise<VehicleDetail> {
   const { crewFrom, ...fields } = input
-  if (crewFrom) {
-    const role = await loadMembership(db, actor.id, crewFrom)
-    if (!role || !roleAllows(role.role, 'write'))
-      throw validationFailed({
-        crewFrom: ['must be a vehicle you can change (its crew is shared with the new vehicle)'],
-      })
-  }
+  await checkCrewFrom(db, actor, crewFrom)
   return db.transaction(async (tx) => {
-    const [v] = await tx
-      .insert(vehicles)
-      .values({ ...fields, notes: fields.notes ?? '', createdBy: actor.id, updatedBy: actor.id })
-      .returning()
-    await tx
-      .insert(vehicleMemberships)
-      .values({ vehicleId: v!.id, userId: actor.id, role: 'owner', updatedBy: actor.id })
-    if (crewFrom) {
-      const crew = await tx
-        .select({ userId: vehicleMemberships.userId, role: vehicleMemberships.role })
-        .from(vehicleMemberships)
-        .where(
-          and(
-            eq(vehicleMemberships.vehicleId, crewFrom),
-            ne(vehicleMemberships.userId, actor.id),
-            inArray(vehicleMemberships.role, ['owner', 'editor', 'viewer']),
-          ),
-        )
-      if (crew.length)
-        await tx.insert(vehicleMemberships).values(
-          crew.map((m) => ({
-            vehicleId: v!.id,
-            userId: m.userId,
-            role: m.role === 'viewer' ? ('viewer' as const) : ('editor' as const),
-            updatedBy: actor.id,
-          })),
-        )
-    }
-    await recordHistory(tx, {
-      vehicleId: v!.id,
-      entity: 'vehicle',
-      entityId: v!.id,
-      action: 'create',
-      summary: `Created vehicle ${quoted(v!.name)}`,
-      version: v!.version,
-      after: editableFields(v!),
-      actorId: actor.id,
-    })
-    return (await loadDetail(tx, v!.id, 'owner'))!
+    const v = await insertVehicle(tx, actor, fields, crewFrom)
+    return (await loadDetail(tx, v.id, 'owner'))!
   })
 }
 

@@ -1,0 +1,182 @@
+/**
+ * POST /api/scenarios/:scenarioId/save-change: the Outlook's "Save as a new scenario" for a tried pack or
+ * array. One transaction makes a copy of the vehicle with the tried plan's equipment and the new scenario
+ * on it; the copy is shared with the original's crew when the saver can change the original; bad input is
+ * refused naming the field, and nothing is created.
+ */
+import { afterAll, beforeAll, describe, expect, it } from 'vitest'
+import { createApp } from '../../server/app'
+import { testContext } from '../support/context'
+import { createUser, type TestUser } from '../support/factories'
+import type { Plan } from '../../shared/schemas/plan'
+import type { VehicleRole } from '../../shared/schemas/vehicles'
+import {
+  addMember,
+  caller,
+  fridge,
+  inverter,
+  laptop,
+  lfpBattery,
+  solar,
+  vehicleInput,
+  winterTrip,
+} from './vehicles.fixtures'
+
+const ctx = testContext()
+const app = createApp(ctx)
+const call = caller(app)
+afterAll(() => ctx.pool.end())
+
+type Who = VehicleRole | 'stranger'
+const people = {} as Record<Who, TestUser>
+let vehicleId: string
+let scenarioId: string
+let stored: Plan
+
+/**
+ * The plan without the database's ids and the plan's label (vehicle and scenario names), to compare the
+ * copy's equipment and trip with what was tried.
+ */
+const withoutIds = ({ name: _name, ...p }: Plan) => ({
+  ...p,
+  appliances: p.appliances.map(({ id: _id, ...a }) => a),
+  sources: p.sources.map(({ id: _id, ...s }) => s),
+})
+
+beforeAll(async () => {
+  for (const who of ['owner', 'editor', 'viewer', 'advisor', 'stranger'] as const)
+    people[who] = await createUser(ctx)
+  const owner = call(people.owner)
+  vehicleId = (await owner('post', '/api/vehicles', vehicleInput).expect(201)).body.id
+  for (const role of ['editor', 'viewer', 'advisor'] as const)
+    await addMember(ctx, vehicleId, people[role].id, role)
+  await owner('put', `/api/vehicles/${vehicleId}/battery`, { version: 0, battery: lfpBattery }).expect(200)
+  const fridgeId = (await owner('post', `/api/vehicles/${vehicleId}/appliances`, fridge).expect(201)).body.id
+  await owner('post', `/api/vehicles/${vehicleId}/appliances`, laptop).expect(201)
+  await owner('put', `/api/vehicles/${vehicleId}/inverter`, { version: 0, inverter }).expect(200)
+  await owner('post', `/api/vehicles/${vehicleId}/sources`, solar).expect(201)
+  scenarioId = (
+    await owner('post', `/api/vehicles/${vehicleId}/scenarios`, {
+      name: 'Winter',
+      placeName: 'Lofoten',
+      trip: winterTrip,
+      usage: { [fridgeId]: { dutyCycleFraction: 0.45 } },
+    }).expect(201)
+  ).body.id
+  stored = (await owner('get', `/api/scenarios/${scenarioId}/plan`).expect(200)).body
+})
+
+/** The stored plan with a bigger pack and array, as the Outlook's "Try a change" makes it. */
+function tried(): Plan {
+  return {
+    ...stored,
+    battery: { ...stored.battery, capacityAh: 330 },
+    sources: stored.sources.map((s) => (s.kind === 'solar' ? { ...s, peakPowerWp: 600 } : s)),
+  }
+}
+
+const vehicleCount = async (who: Who) =>
+  (await call(people[who])('get', '/api/vehicles').expect(200)).body.total as number
+
+describe('saving a tried pack and array on a copy of the vehicle', () => {
+  it('copies the vehicle with the tried equipment and puts the new scenario, with its usage, on it', async () => {
+    const owner = call(people.owner)
+    const plan = tried()
+    const res = await owner('post', `/api/scenarios/${scenarioId}/save-change`, {
+      name: 'Winter · 330 Ah, 600 Wp',
+      plan,
+    }).expect(201)
+    expect(res.body.vehicleId).not.toBe(vehicleId)
+    expect(res.body.scenario.vehicleId).toBe(res.body.vehicleId)
+    expect(res.body.scenario.name).toBe('Winter · 330 Ah, 600 Wp')
+    expect(res.body.scenario.placeName).toBe('Lofoten')
+    const copy = (await owner('get', `/api/vehicles/${res.body.vehicleId}`).expect(200)).body
+    expect(copy.name).toBe('Test van (Winter · 330 Ah, 600 Wp)')
+    expect(copy.systemVoltageV).toBe(12)
+    expect(copy.myRole).toBe('owner')
+    // The copy's scenario runs exactly the tried plan: same equipment in the same order, same usage, same trip.
+    const saved: Plan = (await owner('get', `/api/scenarios/${res.body.scenario.id}/plan`).expect(200)).body
+    expect(withoutIds(saved)).toEqual(withoutIds(plan))
+    expect(saved.battery.capacityAh).toBe(330)
+    expect(saved.inverter).toEqual(stored.inverter)
+    expect(saved.appliances.find((a) => a.name === fridge.name)!.usage).toEqual({ dutyCycleFraction: 0.45 })
+    // The original is as it was.
+    const original: Plan = (await owner('get', `/api/scenarios/${scenarioId}/plan`).expect(200)).body
+    expect(original).toEqual(stored)
+    // The copy's history says where it came from.
+    const history = (await owner('get', `/api/vehicles/${res.body.vehicleId}/history`).expect(200)).body
+    const summaries = (history.items as { summary: string }[]).map((h) => h.summary).join('\n')
+    expect(summaries).toContain('Created vehicle')
+    expect(summaries).toContain('Took the tried equipment from the Outlook of “Winter”')
+  })
+
+  it('shares the copy with the crew when the saver can change the original; advisors are not carried over', async () => {
+    const res = await call(people.editor)('post', `/api/scenarios/${scenarioId}/save-change`, {
+      name: 'Editor try',
+      plan: tried(),
+    }).expect(201)
+    const id = res.body.scenario.id as string
+    const roleOf = async (who: Who) => {
+      const r = await call(people[who])('get', `/api/scenarios/${id}`)
+      return r.status === 200 ? (r.body.myRole as string) : r.status
+    }
+    expect(await roleOf('editor')).toBe('owner')
+    expect(await roleOf('owner')).toBe('editor')
+    expect(await roleOf('viewer')).toBe('viewer')
+    expect(await roleOf('advisor')).toBe(404)
+    expect(await roleOf('stranger')).toBe(404)
+  })
+
+  it('gives a reader who cannot change the original a copy of their own', async () => {
+    const res = await call(people.viewer)('post', `/api/scenarios/${scenarioId}/save-change`, {
+      name: 'Viewer try',
+      plan: tried(),
+    }).expect(201)
+    const id = res.body.scenario.id as string
+    expect((await call(people.viewer)('get', `/api/scenarios/${id}`).expect(200)).body.myRole).toBe('owner')
+    await call(people.owner)('get', `/api/scenarios/${id}`).expect(404)
+    await call(people.editor)('get', `/api/scenarios/${id}`).expect(404)
+  })
+
+  it('answers 404 to someone who cannot read the scenario, and creates nothing', async () => {
+    const before = await vehicleCount('stranger')
+    await call(people.stranger)('post', `/api/scenarios/${scenarioId}/save-change`, {
+      name: 'Not mine',
+      plan: tried(),
+    }).expect(404)
+    expect(await vehicleCount('stranger')).toBe(before)
+  })
+
+  it('refuses a plan that is not valid, naming the field inside the plan, and creates nothing', async () => {
+    const before = await vehicleCount('owner')
+    const plan = tried()
+    const bad = { ...plan, battery: { ...plan.battery, capacityAh: -5 } }
+    const res = await call(people.owner)('post', `/api/scenarios/${scenarioId}/save-change`, {
+      name: 'Bad',
+      plan: bad,
+    }).expect(400)
+    expect(res.body.error.code).toBe('validation_failed')
+    expect(Object.keys(res.body.error.fields)).toEqual(['plan.battery.capacityAh'])
+    const missing = await call(people.owner)('post', `/api/scenarios/${scenarioId}/save-change`, {
+      name: 'No plan',
+    }).expect(400)
+    expect(missing.body.error.fields.plan[0]).toMatch(/required/)
+    expect(await vehicleCount('owner')).toBe(before)
+  })
+
+  it('refuses an empty name or an unknown field, naming it', async () => {
+    const before = await vehicleCount('owner')
+    const empty = await call(people.owner)('post', `/api/scenarios/${scenarioId}/save-change`, {
+      name: '  ',
+      plan: tried(),
+    }).expect(400)
+    expect(empty.body.error.fields.name[0]).toMatch(/empty/)
+    const extra = await call(people.owner)('post', `/api/scenarios/${scenarioId}/save-change`, {
+      name: 'x',
+      plan: tried(),
+      vehicle: 'y',
+    }).expect(400)
+    expect(Object.keys(extra.body.error.fields)).toContain('vehicle')
+    expect(await vehicleCount('owner')).toBe(before)
+  })
+})
