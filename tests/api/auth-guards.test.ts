@@ -42,6 +42,20 @@ describe('rate limits (PostgreSQL-backed, per client address)', () => {
       .expect(400)
   })
 
+  it('counts only failed sign-ins: a household on one address signs in more often than the limit', async () => {
+    const ip = clientIp()
+    const user = await createUser(limited)
+    const good = { email: user.email, password: user.password }
+    for (let i = 0; i < 5; i++)
+      await request(limitedApp).post('/api/auth/sign-in').set('x-forwarded-for', ip).send(good).expect(200)
+    // Wrong passwords still trip it after the limit, and then the right one waits too.
+    const bad = { email: user.email, password: 'not the password' }
+    for (let i = 0; i < 3; i++)
+      await request(limitedApp).post('/api/auth/sign-in').set('x-forwarded-for', ip).send(bad).expect(400)
+    await request(limitedApp).post('/api/auth/sign-in').set('x-forwarded-for', ip).send(bad).expect(429)
+    await request(limitedApp).post('/api/auth/sign-in').set('x-forwarded-for', ip).send(good).expect(429)
+  })
+
   it('counts across server processes that share the database', async () => {
     const second = testContext({ AUTH_RATE_LIMIT_MAX: '3', AUTH_RATE_LIMIT_WINDOW_SECONDS: '60' })
     const secondApp = createApp(second)

@@ -6,6 +6,8 @@ import { tooMany } from '../../errors'
 /**
  * Attempts per client address for one auth action (sign-in, sign-up, reset), counted in PostgreSQL so every
  * server process shares the count. AUTH_RATE_LIMIT_MAX and AUTH_RATE_LIMIT_WINDOW_SECONDS set it.
+ * Sign-in counts only the attempts that fail (express-rate-limit's skipSuccessfulRequests), so a household
+ * behind one address, signing in on several devices, is not locked out; guessing passwords still is.
  */
 export function authLimiter(ctx: AppContext, name: 'sign-in' | 'sign-up' | 'reset'): RateLimitRequestHandler {
   const windowS = ctx.env.AUTH_RATE_LIMIT_WINDOW_SECONDS
@@ -14,6 +16,7 @@ export function authLimiter(ctx: AppContext, name: 'sign-in' | 'sign-up' | 'rese
     limit: ctx.env.AUTH_RATE_LIMIT_MAX ?? 10,
     standardHeaders: 'draft-7',
     legacyHeaders: false,
+    skipSuccessfulRequests: name === 'sign-in',
     store: new PgRateLimitStore(ctx.pool, `auth-${name}`),
     handler: (_req, _res, next) => {
       const minutes = Math.max(1, Math.round(windowS / 60))
