@@ -18,6 +18,7 @@ import { apiRouter } from '../../server/routes/index'
 import { testContext } from '../support/context'
 import { createUser, type TestUser } from '../support/factories'
 import { advisorWithProfile, crewFixture, type CrewFixture } from '../support/sharing'
+import { examplePlan } from './results.fixture'
 
 const ctx = testContext({ APP_URL: 'http://127.0.0.1:39998' })
 const app = createApp(ctx)
@@ -357,6 +358,11 @@ function cases(): Record<string, Case> {
       cookie: editor,
       params: async () => ({ scenarioId: f.scenarioId }),
       base: async () => ({ name: 'Copy' }),
+    },
+    'POST /api/scenarios/:scenarioId/save-change': {
+      cookie: editor,
+      params: async () => ({ scenarioId: f.scenarioId }),
+      base: async () => ({ name: 'Tried', plan: examplePlan('winter-week-lofoten') }),
     },
     'POST /api/vehicles/:vehicleId/scenarios/import': {
       cookie: editor,

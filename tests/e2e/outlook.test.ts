@@ -536,6 +536,14 @@ describe('Outlook and Side by side in Chromium', { timeout: 240_000 }, () => {
       (await headline.innerText()).trim(),
     )
     await page.screenshot({ path: `${dir}/outlook-phone-try.png` })
+    // A chart's table wider than the phone says that more columns follow to the right.
+    const temperature = page.locator('[data-test="chart-temperature"]')
+    await temperature.locator('[data-test="chart-table-toggle"]').click()
+    const middle = temperature.locator('.q-table__middle')
+    await middle.waitFor()
+    expect(await middle.evaluate((e) => e.scrollWidth - e.clientWidth)).toBeGreaterThan(4)
+    await expect.poll(() => temperature.locator('[data-test="hourly-scroll-hint"]').isVisible()).toBe(true)
+    await temperature.locator('[data-test="chart-table-toggle"]').click()
     await page.goto(`${server.url}/side-by-side?s=${savedId ?? winterId},${summerId}`)
     await page.locator('[data-test="compare-table"]').waitFor({ timeout: 60_000 })
     await page.waitForTimeout(300)
