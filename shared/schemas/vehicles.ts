@@ -421,8 +421,12 @@ export type ScenarioCreate = z.infer<typeof ScenarioCreateSchema>
 export const ScenarioPatchSchema = ScenarioFields.partial().extend({ version: VersionSchema })
 export type ScenarioPatch = z.infer<typeof ScenarioPatchSchema>
 
-/** POST /api/scenarios/:scenarioId/duplicate → 201 Scenario (a copy in the same vehicle, version 1). */
-export const ScenarioDuplicateSchema = z.strictObject({ name: NameSchema })
+/**
+ * POST /api/scenarios/:scenarioId/duplicate → 201 Scenario (a copy in the same vehicle, version 1). `trip`,
+ * when sent, replaces the copy's trip in the same transaction (the Outlook's "Save as a new scenario" for a
+ * tried driving time, night low or sky).
+ */
+export const ScenarioDuplicateSchema = z.strictObject({ name: NameSchema, trip: TripSchema.optional() })
 export type ScenarioDuplicate = z.infer<typeof ScenarioDuplicateSchema>
 
 const ScenarioCommon = z.object({

@@ -81,14 +81,9 @@ export async function saveWhatIf(input: SaveWhatIfInput): Promise<SavedWhatIf> {
   const { scenario, plan, name } = input
   const canWrite = scenario.myRole === 'owner' || scenario.myRole === 'editor'
   if (!input.equipmentChanged && canWrite) {
-    const copy = ScenarioSchema.parse(
-      await http.post(`/scenarios/${encodeURIComponent(scenario.id)}/duplicate`, { name }),
-    )
+    // One request: the copy with the tried trip, in one transaction.
     const saved = ScenarioSchema.parse(
-      await http.patch(`/scenarios/${encodeURIComponent(copy.id)}`, {
-        version: copy.version,
-        trip: plan.trip,
-      }),
+      await http.post(`/scenarios/${encodeURIComponent(scenario.id)}/duplicate`, { name, trip: plan.trip }),
     )
     return { scenarioId: saved.id, vehicleId: saved.vehicleId, vehicleCopied: false }
   }

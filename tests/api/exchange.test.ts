@@ -205,6 +205,21 @@ describe('plan files', () => {
       .send('{"format": "ohmward-plan", ')
     expect(notJson.status).toBe(400)
 
+    // A row the vehicle's appliance list would refuse (10 h a day in a 4 h window), although the file's
+    // per-scenario usage (2 h) fits: the import checks each row as the appliance endpoint does.
+    const squeezed = structuredClone(good)
+    Object.assign(squeezed.plan.appliances[0], {
+      hoursPerDay: 10,
+      startHour: 8,
+      endHour: 12,
+      usage: { hoursPerDay: 2 },
+    })
+    delete squeezed.plan.appliances[0].dutyCycleFraction
+    const rows = await post(squeezed)
+    expect(rows.status).toBe(400)
+    expect(rows.body.error.code).toBe('import_invalid')
+    expect(Object.keys(rows.body.error.fields)).toEqual(['plan.appliances.0.hoursPerDay'])
+
     expect(await countScenarios(bob, v.body.id)).toBe(0)
     const battery = await request(app).get(`/api/vehicles/${v.body.id}/battery`).set('Cookie', bob.cookie)
     expect(battery.body.battery).toBeNull()

@@ -6,6 +6,7 @@
  */
 import { afterAll, beforeAll, describe, expect, it } from 'vitest'
 import { createApp } from '../../server/app'
+import { copyName } from '../../server/modules/exchange/exchange.service'
 import { testContext } from '../support/context'
 import { createUser, type TestUser } from '../support/factories'
 import type { Plan } from '../../shared/schemas/plan'
@@ -127,6 +128,28 @@ describe('saving a tried pack and array on a copy of the vehicle', () => {
     expect(await roleOf('stranger')).toBe(404)
   })
 
+  it('gives an advisor reviewing the plan a copy of their own, which the crew does not see', async () => {
+    const res = await call(people.advisor)('post', `/api/scenarios/${scenarioId}/save-change`, {
+      name: 'Advisor try',
+      plan: tried(),
+    }).expect(201)
+    const id = res.body.scenario.id as string
+    expect((await call(people.advisor)('get', `/api/scenarios/${id}`).expect(200)).body.myRole).toBe('owner')
+    await call(people.owner)('get', `/api/scenarios/${id}`).expect(404)
+  })
+
+  it('names the copy within the limit without cutting a character in half', () => {
+    expect(copyName('Blue van', 'Winter · 330 Ah')).toBe('Blue van (Winter · 330 Ah)')
+    const long = copyName('🚐'.repeat(100), 'Winter · 330 Ah')
+    expect([...long].length).toBeLessThanOrEqual(120)
+    expect(long.endsWith(' (Winter · 330 Ah)')).toBe(true)
+    expect(long.startsWith('🚐')).toBe(true)
+    expect([...long].every((c) => c.codePointAt(0)! < 0xd800 || c.codePointAt(0)! > 0xdfff)).toBe(true)
+    const both = copyName('Van', 'x'.repeat(120))
+    expect([...both].length).toBeLessThanOrEqual(120)
+    expect(both.endsWith(')')).toBe(true)
+  })
+
   it('gives a reader who cannot change the original a copy of their own', async () => {
     const res = await call(people.viewer)('post', `/api/scenarios/${scenarioId}/save-change`, {
       name: 'Viewer try',
@@ -161,6 +184,61 @@ describe('saving a tried pack and array on a copy of the vehicle', () => {
       name: 'No plan',
     }).expect(400)
     expect(missing.body.error.fields.plan[0]).toMatch(/required/)
+    expect(await vehicleCount('owner')).toBe(before)
+  })
+
+  it('leaves nothing behind when the last step fails: the copy is one transaction', async () => {
+    // A database trigger makes the new scenario's insert fail, after the vehicle, its crew and its equipment
+    // were written in the same transaction (for this scenario name only; the test database is shared).
+    const NAME = `Fails at the scenario ${Math.random().toString(36).slice(2)}`
+    await ctx.pool.query(`
+      CREATE OR REPLACE FUNCTION ow_test_fail_scenario() RETURNS trigger LANGUAGE plpgsql AS $$
+      BEGIN
+        IF NEW.name = '${NAME}' THEN RAISE EXCEPTION 'test: scenario insert refused'; END IF;
+        RETURN NEW;
+      END $$;
+      CREATE TRIGGER ow_test_fail_scenario BEFORE INSERT ON scenarios
+        FOR EACH ROW EXECUTE FUNCTION ow_test_fail_scenario();`)
+    try {
+      const vehiclesBefore = await vehicleCount('owner')
+      const editorBefore = await vehicleCount('editor')
+      const res = await call(people.owner)('post', `/api/scenarios/${scenarioId}/save-change`, {
+        name: NAME,
+        plan: tried(),
+      })
+      expect(res.status).toBe(500)
+      expect(res.body.error.code).toBeTruthy()
+      expect(await vehicleCount('owner')).toBe(vehiclesBefore)
+      expect(await vehicleCount('editor')).toBe(editorBefore)
+      // No copy under any owner, and so no equipment on one.
+      const { rows } = await ctx.pool.query(
+        'SELECT count(*)::int AS n FROM vehicles WHERE strpos(name, $1) > 0',
+        [NAME],
+      )
+      expect(rows[0].n).toBe(0)
+    } finally {
+      await ctx.pool.query(
+        'DROP TRIGGER IF EXISTS ow_test_fail_scenario ON scenarios; DROP FUNCTION IF EXISTS ow_test_fail_scenario();',
+      )
+    }
+  })
+
+  it('refuses an appliance row that would not fit its own hours, as the appliance list does', async () => {
+    const before = await vehicleCount('owner')
+    const plan = tried()
+    const i = plan.appliances.findIndex((a) => a.name === laptop.name)
+    plan.appliances[i] = {
+      ...plan.appliances[i]!,
+      hoursPerDay: 10,
+      startHour: 8,
+      endHour: 12,
+      usage: { hoursPerDay: 2 },
+    }
+    const res = await call(people.owner)('post', `/api/scenarios/${scenarioId}/save-change`, {
+      name: 'Squeezed',
+      plan,
+    }).expect(400)
+    expect(Object.keys(res.body.error.fields)).toEqual([`plan.appliances.${i}.hoursPerDay`])
     expect(await vehicleCount('owner')).toBe(before)
   })
 

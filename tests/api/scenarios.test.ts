@@ -180,6 +180,26 @@ describe('scenarios', () => {
     expect(bad.body.error.fields.name).toEqual(['must not be empty'])
   })
 
+  it('duplicates with a tried trip in the same request, and refuses a bad trip naming the field', async () => {
+    const v = await vehicle()
+    const s = (
+      await as('post', `/api/vehicles/${v.id}/scenarios`, { name: 'S', trip: winterTrip }).expect(201)
+    ).body
+    const tried = { ...winterTrip, nightLowC: -20, sky: 'overcast' as const }
+    const copy = (
+      await as('post', `/api/scenarios/${s.id}/duplicate`, { name: 'S · colder', trip: tried }).expect(201)
+    ).body
+    expect(copy.trip).toEqual(tried)
+    expect((await as('get', `/api/scenarios/${s.id}`).expect(200)).body.trip).toEqual(s.trip)
+    const before = (await as('get', `/api/vehicles/${v.id}/scenarios`).expect(200)).body.total
+    const bad = await as('post', `/api/scenarios/${s.id}/duplicate`, {
+      name: 'Bad',
+      trip: { ...winterTrip, days: 0 },
+    }).expect(400)
+    expect(Object.keys(bad.body.error.fields)).toContain('trip.days')
+    expect((await as('get', `/api/vehicles/${v.id}/scenarios`).expect(200)).body.total).toBe(before)
+  })
+
   it('drops an appliance’s usage when the appliance is removed', async () => {
     const v = await vehicle()
     const s = (

@@ -15,7 +15,12 @@ import { eq, sql } from 'drizzle-orm'
 import { makePlanFile, readPlanFile, type PlanFile } from '../../../shared/exchange/format'
 import { hourlyCsv } from '../../../shared/exchange/hourly-csv'
 import { parsePlan, type ApplianceUsage, type Plan } from '../../../shared/schemas/plan'
-import { LIST_LIMITS, type Scenario, type VehicleCreate } from '../../../shared/schemas/vehicles'
+import {
+  ApplianceCreateSchema,
+  LIST_LIMITS,
+  type Scenario,
+  type VehicleCreate,
+} from '../../../shared/schemas/vehicles'
 import type { Db } from '../../db/client'
 import {
   appliances,
@@ -87,6 +92,24 @@ export interface PlanImportResult {
 }
 
 const norm = (s: string) => s.trim().toLocaleLowerCase('en')
+
+/**
+ * The plan's appliances checked as the appliance endpoint checks a new row (ApplianceCreateSchema: e.g. the
+ * hours a day must fit the appliance's own window). The plan schema checks the hours against a scenario's
+ * usage instead, so a plan can pass with rows the vehicle's own list would refuse. Errors keyed
+ * `appliances.N.field`; empty when every row is fine.
+ */
+function applianceRowIssues(plan: Plan): Record<string, string[]> {
+  const fields: Record<string, string[]> = {}
+  plan.appliances.forEach((a, i) => {
+    const { id: _id, usage: _usage, ...row } = a
+    const r = ApplianceCreateSchema.safeParse(row)
+    if (r.success) return
+    for (const issue of r.error.issues)
+      (fields[['appliances', i, ...issue.path].join('.')] ??= []).push(issue.message)
+  })
+  return fields
+}
 
 /**
  * Inside a transaction: a plan's battery bank, inverter, appliances (in the plan's order) and charge sources
@@ -197,6 +220,14 @@ export async function importPlanFile(
   if (!read.ok) throw new HttpError(400, 'import_invalid', read.message, read.fields)
   const file = read.file
   const plan: Plan = file.plan
+  const rowIssues = applianceRowIssues(plan)
+  if (Object.keys(rowIssues).length > 0)
+    throw new HttpError(
+      400,
+      'import_invalid',
+      'Some appliances in the file do not fit their own hours.',
+      Object.fromEntries(Object.entries(rowIssues).map(([k, v]) => [`plan.${k}`, v])),
+    )
   const name = (nameOverride?.trim() || file.scenario.name).slice(0, 100)
 
   const { scenarioId, equipmentCreated, notes } = await db.transaction(async (tx) => {
@@ -275,6 +306,27 @@ export async function importPlanFile(
   }
 }
 
+/**
+ * "Blue van (Winter · 330 Ah)", within the name limit: the original's name is shortened (by characters, not
+ * UTF-16 units, so an emoji is never cut in half), the tried scenario's name kept whole where it fits.
+ */
+export function copyName(vehicle: string, scenario: string): string {
+  const max = LIST_LIMITS.nameMaxLength
+  const tail = [...` (${scenario})`]
+  if (tail.length >= max - 8)
+    return (
+      [...`${vehicle} (${scenario}`]
+        .slice(0, max - 1)
+        .join('')
+        .trim() + ')'
+    )
+  const head = [...vehicle]
+    .slice(0, max - tail.length)
+    .join('')
+    .trim()
+  return head + tail.join('')
+}
+
 export interface SavedChange {
   scenario: Scenario
   vehicleId: string
@@ -303,6 +355,12 @@ export async function saveChangeOnVehicleCopy(
       'The tried plan is not valid.',
     )
   const plan = read.plan
+  const rowIssues = applianceRowIssues(plan)
+  if (Object.keys(rowIssues).length > 0)
+    throw validationFailed(
+      Object.fromEntries(Object.entries(rowIssues).map(([k, v]) => [`plan.${k}`, v])),
+      'The tried plan is not valid.',
+    )
   const [original] = await db.select().from(vehicles).where(eq(vehicles.id, row.vehicleId)).limit(1)
   if (!original) throw notFound('That scenario')
   const crewFrom = roleAllows(role, 'write') ? original.id : undefined
@@ -311,7 +369,7 @@ export async function saveChangeOnVehicleCopy(
       tx,
       actor,
       {
-        name: `${original.name} (${input.name})`.slice(0, LIST_LIMITS.nameMaxLength),
+        name: copyName(original.name, input.name),
         kind: original.kind,
         systemVoltageV: original.systemVoltageV as VehicleCreate['systemVoltageV'],
         notes: `Copied from ${quoted(original.name)} to keep a tried change from the Outlook of ${quoted(row.name)}.`,

@@ -354,7 +354,7 @@ export async function duplicateScenario(
         name: input.name,
         notes: source.notes,
         placeName: source.placeName,
-        trip: source.trip,
+        trip: input.trip ?? source.trip,
         createdBy: actor.id,
         updatedBy: actor.id,
       })

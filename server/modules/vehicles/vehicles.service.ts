@@ -163,7 +163,8 @@ export async function checkCrewFrom(db: DbOrTx, actor: Actor, crewFrom: string |
 }
 
 /**
- * Inside a transaction: a new vehicle, its creator as owner and, with `crewFrom` (checked by checkCrewFrom),
+ * Inside a transaction: a new vehicle, its creator as owner and, with `crewFrom` (a vehicle the caller has
+ * checked the actor can change: checkCrewFrom, or the role already loaded),
  * that vehicle's owner and editors as editors and its viewers as viewers (advisors are not carried over);
  * the creation goes into the vehicle's history. Returns the new vehicle's row.
  */
