@@ -1,5 +1,5 @@
 // @vitest-environment happy-dom
-import { describe, expect, it, beforeEach } from 'vitest'
+import { describe, expect, it, beforeEach, vi } from 'vitest'
 import { mount, RouterLinkStub } from '@vue/test-utils'
 import { Quasar } from 'quasar'
 import { createPinia, setActivePinia, type Pinia } from 'pinia'
@@ -117,12 +117,41 @@ describe('the verdict', () => {
     const w = mount(OutlookTryChange, { props: { ...props, answer: view }, global })
     const answer = w.get('[data-test="try-answer"]')
     expect(answer.attributes('data-status')).toBe('tight')
-    expect(answer.attributes('role')).toBe('status')
+    // Not a live region itself (its caption changes on every step); the hidden region below speaks.
+    expect(answer.attributes('role')).toBeUndefined()
     expect(answer.get('[data-test="try-answer-headline"]').text()).toBe(
       'Carries the trip, but only 4 % to spare',
     )
     expect(answer.text()).toContain('Lowest charge 14 % on day 4 at 06:00; the floor you set is 10 %.')
     expect(answer.find('.q-icon').text()).toBe('warning')
+  })
+
+  it('announces the headline to screen readers once the controls are still, not on opening nor per step', async () => {
+    vi.useFakeTimers()
+    try {
+      const props = {
+        base: whatIfBase(example('winter-week-lofoten')),
+        whatIf: {},
+        prefs: { unitSystem: 'metric', temperatureUnit: 'C' } as const,
+        changed: false,
+        canSave: true,
+        headline: 'Runs short on day 3 at 03:00',
+      }
+      const w = mount(OutlookTryChange, { props, global: { plugins: [[Quasar, {}], pinia] as never } })
+      const region = w.get('[data-test="try-announce"]')
+      expect(region.attributes('aria-live')).toBe('polite')
+      await vi.advanceTimersByTimeAsync(2000)
+      expect(region.text()).toBe('')
+      await w.setProps({ changed: true, headline: 'Runs short on day 4 at 06:00' })
+      await vi.advanceTimersByTimeAsync(300)
+      await w.setProps({ headline: 'Carries the trip, but only 4 % to spare' })
+      await vi.advanceTimersByTimeAsync(300)
+      expect(region.text()).toBe('')
+      await vi.advanceTimersByTimeAsync(600)
+      expect(region.text()).toBe('Carries the trip, but only 4 % to spare')
+    } finally {
+      vi.useRealTimers()
+    }
   })
 
   it('flips from short to carries on the real engine when the winter van gets a bigger pack', () => {

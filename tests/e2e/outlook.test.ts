@@ -535,6 +535,10 @@ describe('Outlook and Side by side in Chromium', { timeout: 240_000 }, () => {
     expect(await answer.locator('[data-test="try-answer-headline"]').innerText()).toBe(
       (await headline.innerText()).trim(),
     )
+    // Screen readers hear the new headline once the control is still (a hidden live region).
+    await expect
+      .poll(() => page.locator('[data-test="try-announce"]').textContent())
+      .toBe((await headline.innerText()).trim())
     await page.screenshot({ path: `${dir}/outlook-phone-try.png` })
     // A chart's table wider than the phone says that more columns follow to the right.
     const temperature = page.locator('[data-test="chart-temperature"]')
