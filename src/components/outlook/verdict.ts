@@ -37,6 +37,8 @@ export interface VerdictView {
   headline: string
   /** Lowest SOC and when, against the floor. */
   detail: string
+  /** Lowest SOC and when, short ("Lowest charge 38 % on day 4 at 10:00"), for one line. */
+  lowest: string
   /** The margin in words and energy, or what was not served. */
   margin: string
 }
@@ -55,6 +57,7 @@ export function verdictView(r: VerdictInput): VerdictView {
   const detail = atFloor
     ? `Lowest charge ${formatPercent(s.lowestSocFraction)}, the floor you set,${lowestWhen}.`
     : `Lowest charge ${formatPercent(s.lowestSocFraction)}${lowestWhen}; the floor you set is ${formatPercent(floor)}.`
+  const lowest = `Lowest charge ${formatPercent(s.lowestSocFraction)}${lowestWhen}`
   if (r.verdict.status === 'short') {
     const first = r.totals.firstShortageHour
     const headline =
@@ -65,6 +68,7 @@ export function verdictView(r: VerdictInput): VerdictView {
       icon: 'battery_alert',
       headline,
       detail,
+      lowest,
       margin: `${formatEnergy(s.unservedWh)} of loads would go unserved over the trip.`,
     }
   }
@@ -80,6 +84,7 @@ export function verdictView(r: VerdictInput): VerdictView {
           ? 'Carries the trip, with nothing to spare'
           : `Carries the trip, but only ${pct} to spare`,
       detail,
+      lowest,
       margin: `${margin} A plain “carries” keeps at least ${formatPercent(TIGHT_MARGIN_FRACTION)} in reserve, for a colder night or a duller day than planned.`,
     }
   }
@@ -89,6 +94,7 @@ export function verdictView(r: VerdictInput): VerdictView {
     icon: 'check_circle',
     headline: `Carries the trip with ${pct} to spare`,
     detail,
+    lowest,
     margin,
   }
 }
