@@ -107,6 +107,11 @@ describe('saving a tried pack and array on a copy of the vehicle', () => {
     // The copy's history says where it came from.
     const history = (await owner('get', `/api/vehicles/${res.body.vehicleId}/history`).expect(200)).body
     const summaries = (history.items as { summary: string }[]).map((h) => h.summary).join('\n')
+    // A copy, not an import of a file.
+    const took = (history.items as { summary: string; action: string }[]).find((h) =>
+      h.summary.startsWith('Took the tried equipment'),
+    )
+    expect(took?.action).toBe('duplicate')
     expect(summaries).toContain('Created vehicle')
     expect(summaries).toContain('Took the tried equipment from the Outlook of “Winter”')
   })

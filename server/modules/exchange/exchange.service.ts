@@ -122,6 +122,7 @@ async function insertPlanEquipment(
   vehicleId: string,
   plan: Plan,
   summary: string,
+  action: 'import' | 'duplicate',
 ): Promise<Record<string, ApplianceUsage>> {
   const usage: Record<string, ApplianceUsage> = {}
   await tx.insert(batteryBanks).values({ vehicleId, params: plan.battery, updatedBy: actor.id })
@@ -144,7 +145,7 @@ async function insertPlanEquipment(
     vehicleId,
     entity: 'vehicle',
     entityId: vehicleId,
-    action: 'import',
+    action,
     summary: `${summary}: battery bank, ${plan.appliances.length} appliances, ${plan.sources.length} charge sources${plan.inverter ? ', inverter' : ''}`,
     after: {
       battery: plan.battery,
@@ -170,6 +171,7 @@ async function insertPlanScenario(
     usage: Record<string, ApplianceUsage>
   },
   summary: (quotedName: string) => string,
+  action: 'import' | 'duplicate',
 ): Promise<string> {
   const [row] = await tx
     .insert(scenarios)
@@ -198,7 +200,7 @@ async function insertPlanScenario(
     vehicleId,
     entity: 'scenario',
     entityId: row!.id,
-    action: 'import',
+    action,
     summary: summary(quoted(row!.name)),
     version: row!.version,
     after: { name: row!.name, notes: row!.notes, placeName: row!.placeName, trip: row!.trip, usage: s.usage },
@@ -259,6 +261,7 @@ export async function importPlanFile(
           vehicleId,
           plan,
           `Took the equipment from the plan file of ${quoted(file.vehicle.name)}`,
+          'import',
         ),
       )
       notes.push(
@@ -293,6 +296,7 @@ export async function importPlanFile(
         usage,
       },
       (n) => `Imported scenario ${n} from a plan file`,
+      'import',
     )
     return { scenarioId, equipmentCreated: empty, notes }
   })
@@ -382,6 +386,7 @@ export async function saveChangeOnVehicleCopy(
       v.id,
       plan,
       `Took the tried equipment from the Outlook of ${quoted(row.name)}`,
+      'duplicate',
     )
     const id = await insertPlanScenario(
       tx,
@@ -389,6 +394,7 @@ export async function saveChangeOnVehicleCopy(
       v.id,
       { name: input.name, notes: row.notes, placeName: row.placeName, trip: plan.trip, usage },
       (n) => `Saved scenario ${n} from a tried change`,
+      'duplicate',
     )
     return { vehicleId: v.id, newScenarioId: id }
   })
